@@ -1,0 +1,214 @@
+import crypto from 'node:crypto';
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath } from 'node:url';
+import express, { type ErrorRequestHandler, type RequestHandler } from 'express';
+import session from 'express-session';
+import helmet from 'helmet';
+import { Passport } from 'passport';
+import { Strategy as LocalStrategy } from 'passport-local';
+import pino from 'pino';
+import { pinoHttp } from 'pino-http';
+import type { Config } from './config';
+import { DEMO_PASSWORD } from './config';
+import { migrate, openDb } from './lib/db';
+import { AppError, errors } from './lib/errors';
+import { createMailer } from './lib/mail/mailer';
+import { allowFactory, type AuthUser } from './lib/policy';
+import { listRoutes, routeTable } from './lib/routes';
+import { createSessionStore } from './lib/session-store';
+import { safeEqual } from './lib/tokens';
+import { startMailCapture } from './fakes/mail-capture';
+import { authRepository, toUser } from './features/auth/auth.repository';
+import { authRoutes } from './features/auth/auth.routes';
+import { authService } from './features/auth/auth.service';
+import { clientsRepository } from './features/clients/clients.repository';
+import { clientsRoutes } from './features/clients/clients.routes';
+import { clientsService } from './features/clients/clients.service';
+import { devMailRouter } from './features/dev-mail/dev-mail.routes';
+import { invitationsRepository } from './features/invitations/invitations.repository';
+import { invitationsService } from './features/invitations/invitations.service';
+import { metaRoutes } from './features/meta/meta.routes';
+import { studiosRepository } from './features/studios/studios.repository';
+import { studiosRoutes } from './features/studios/studios.routes';
+import { studiosService } from './features/studios/studios.service';
+import { loginInput } from '../shared/schemas/auth';
+import { seedDemo } from '../seeds/demo';
+
+const distDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../dist');
+const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
+/** The one route without CSRF: the payment service signs its events instead. */
+const CSRF_EXEMPT = new Set(['/api/webhooks/payments']);
+
+export async function createApp(config: Config) {
+  const log = pino({ level: config.logLevel });
+  const db = openDb(config);
+  await migrate(db);
+
+  const capture = config.smtpUrl ? null : await startMailCapture({ db, clock: config.clock, port: config.mailCapturePort, log });
+  const mailer = createMailer({
+    db,
+    clock: config.clock,
+    smtp: config.smtpUrl ?? { host: '127.0.0.1', port: capture!.port },
+    from: config.mailFrom,
+    log,
+  });
+
+  // Repositories and services, wired by hand: one place shows what depends on what.
+  const authRepo = authRepository(db);
+  const studiosRepo = studiosRepository(db);
+  const clientsRepo = clientsRepository(db);
+  const studios = studiosService({ db, repo: studiosRepo, clock: config.clock });
+  const auth = authService({ db, repo: authRepo, studios, mailer, clock: config.clock, bcryptRounds: config.bcryptRounds, publicUrl: config.publicUrl });
+  const clients = clientsService({ db, repo: clientsRepo, clock: config.clock });
+  const invitations = invitationsService({
+    db,
+    repo: invitationsRepository(db),
+    users: authRepo,
+    auth,
+    studios: studiosRepo,
+    clients: clientsRepo,
+    mailer,
+    clock: config.clock,
+    publicUrl: config.publicUrl,
+  });
+
+  if (config.demo && !(await db('studios').first('id'))) {
+    await seedDemo(db, { clock: config.clock, hash: auth.hash, studios });
+    log.info('demo scenario loaded');
+  }
+
+  const passport = new Passport();
+  passport.use(
+    new LocalStrategy({ usernameField: 'email', passReqToCallback: true }, (req, _email, _password, done) => {
+      auth.verifyLogin(loginInput.parse(req.body), req.ip ?? 'unknown').then((u) => done(null, u), done);
+    }),
+  );
+  passport.serializeUser((u, done) => done(null, (u as AuthUser).id));
+  passport.deserializeUser((id: number, done) => {
+    authRepo.findUserById(id).then((u) => done(null, u ? toUser(u) : false), done);
+  });
+
+  const app = express();
+  app.disable('x-powered-by');
+  app.set('trust proxy', config.trustProxy ? 1 : false);
+  app.use(
+    pinoHttp({
+      logger: log,
+      genReqId: (_req, res) => {
+        const id = crypto.randomUUID();
+        res.setHeader('x-request-id', id);
+        return id;
+      },
+      autoLogging: config.logLevel === 'debug' || config.logLevel === 'trace',
+    }),
+  );
+  app.use(
+    helmet({
+      contentSecurityPolicy: {
+        useDefaults: true,
+        directives: {
+          'default-src': ["'self'"],
+          'script-src': ["'self'"],
+          'style-src': ["'self'", "'unsafe-inline'"],
+          'img-src': ["'self'", 'data:', 'blob:'],
+          'font-src': ["'self'", 'data:'],
+          'connect-src': ["'self'"],
+          'frame-ancestors': ["'none'"],
+          'form-action': ["'self'"],
+          'object-src': ["'none'"],
+          'upgrade-insecure-requests': null,
+        },
+      },
+      crossOriginEmbedderPolicy: false,
+      strictTransportSecurity: config.publicUrl.startsWith('https:'),
+    }),
+  );
+
+  const store = createSessionStore(db, { cleanupInterval: config.runJobs ? 15 * 60_000 : 0 });
+  const sessionMiddleware = session({
+    name: 'sablework.sid',
+    secret: config.sessionSecret,
+    store,
+    resave: false,
+    saveUninitialized: false,
+    rolling: true,
+    cookie: { httpOnly: true, sameSite: 'lax', secure: config.publicUrl.startsWith('https:') && config.trustProxy ? 'auto' : false, maxAge: 14 * 24 * 3600_000 },
+  });
+
+  const csrf: RequestHandler = (req, _res, next) => {
+    if (!UNSAFE.has(req.method) || CSRF_EXEMPT.has(req.path)) return next();
+    const sent = req.get('x-csrf-token');
+    const expected = req.session?.csrf;
+    if (!sent || !expected || !safeEqual(sent, expected)) throw errors.csrf();
+    next();
+  };
+
+  // The API router holds every route with its full path, so the route list is read from one place.
+  const apiRouter = express.Router();
+  const r = routeTable(apiRouter);
+  const allow = allowFactory(db);
+  const meta = { demo: config.demo, devMail: Boolean(capture), ...(config.demo ? { demoPassword: DEMO_PASSWORD } : {}) };
+  metaRoutes(r, { meta });
+  authRoutes(r, { auth, invitations, passport: passport as never });
+  studiosRoutes(r, { allow, studios, invitations });
+  clientsRoutes(r, { allow, clients, invitations });
+
+  app.use('/api', express.json({ limit: '1mb' }), sessionMiddleware, passport.initialize(), passport.session(), csrf, apiRouter);
+  app.use('/api', (_req, _res, next) => next(errors.notFound('That API route')));
+  if (capture) app.use('/dev/mail', devMailRouter(db));
+
+  if (config.serveClient && fs.existsSync(path.join(distDir, 'index.html'))) {
+    app.use(express.static(distDir, { index: false, maxAge: '1h' }));
+    app.get(/^\/(?!api\/|dev\/).*/, (_req, res) => res.sendFile(path.join(distDir, 'index.html')));
+  }
+
+  const errorHandler: ErrorRequestHandler = (err, req, res, _next) => {
+    let e: AppError;
+    if (err instanceof AppError) e = err;
+    else if (err?.type === 'entity.parse.failed') e = errors.invalid('The request body is not valid JSON.');
+    else if (err?.type === 'entity.too.large') e = errors.tooLarge('The request body is too large.');
+    else if (err?.status === 400 || err?.statusCode === 400) e = errors.invalid('The request could not be read.');
+    else {
+      req.log.error({ err }, 'unexpected error');
+      const id = String(req.id);
+      res.status(500).json({ error: { code: 'internal', message: `Something went wrong on our side. If it keeps happening, quote request ${id}.`, requestId: id } });
+      return;
+    }
+    if (e.headers) res.set(e.headers);
+    res.status(e.status).json({ error: { code: e.code, message: e.message, ...(e.fields ? { fields: e.fields } : {}) } });
+  };
+  app.use(errorHandler);
+
+  // Background work: timers in a running server; tests call the jobs directly after moving the clock.
+  const jobs = {
+    deliverMail: () => mailer.deliverDue(),
+    pruneLoginFailures: () => auth.pruneFailures(),
+  };
+  const timers: NodeJS.Timeout[] = [];
+  if (config.runJobs) {
+    timers.push(setInterval(() => mailer.kick(), 15_000).unref());
+    timers.push(setInterval(() => void jobs.pruneLoginFailures().catch(() => undefined), 3600_000).unref());
+    mailer.kick();
+  }
+
+  return {
+    app,
+    db,
+    config,
+    log,
+    mailer,
+    jobs,
+    mailCapturePort: capture?.port ?? null,
+    routes: () => listRoutes(apiRouter),
+    async close() {
+      timers.forEach(clearInterval);
+      if (store.nextDbCleanup) clearTimeout(store.nextDbCleanup);
+      mailer.close();
+      await capture?.close();
+      await db.destroy();
+    },
+  };
+}
+
+export type SableworkApp = Awaited<ReturnType<typeof createApp>>;

@@ -1,0 +1,80 @@
+import path from 'node:path';
+import { z } from 'zod';
+import { systemClock, type Clock } from './lib/clock';
+
+const bool = z
+  .enum(['true', 'false', '1', '0', ''])
+  .optional()
+  .transform((v) => v === 'true' || v === '1');
+
+/** Environment variables, parsed once at start-up; `.env.example` documents each. */
+const envSchema = z.object({
+  PORT: z.coerce.number().int().min(0).max(65535).default(3000),
+  HOST: z.string().default('127.0.0.1'),
+  DATA_DIR: z.string().default('./data'),
+  DATABASE_URL: z.string().optional(),
+  PUBLIC_URL: z.string().url().optional(),
+  SESSION_SECRET: z.string().min(16, 'SESSION_SECRET must be at least 16 characters').optional(),
+  TRUST_PROXY: bool,
+  SMTP_URL: z.string().optional(),
+  MAIL_FROM: z.string().default('Sablework <no-reply@sablework.local>'),
+  MAIL_CAPTURE_PORT: z.coerce.number().int().min(0).max(65535).default(0),
+  DEMO: z.enum(['true', 'false', '1', '0', '']).optional(),
+  BCRYPT_ROUNDS: z.coerce.number().int().min(4).max(15).default(12),
+  LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+});
+
+export type Config = {
+  port: number;
+  host: string;
+  dataDir: string;
+  databaseUrl?: string;
+  /** The address people open, used in e-mailed links. */
+  publicUrl: string;
+  sessionSecret: string;
+  trustProxy: boolean;
+  /** When unset, a local capture SMTP server is started and `/dev/mail` shows what it caught. */
+  smtpUrl?: string;
+  mailFrom: string;
+  mailCapturePort: number;
+  /** Load the demo scenario into an empty database and show demo hints. */
+  demo: boolean;
+  bcryptRounds: number;
+  logLevel: string;
+  clock: Clock;
+  /** Serve the built client from dist/ (off in API tests). */
+  serveClient: boolean;
+  /** Run background jobs on timers (tests call them directly instead). */
+  runJobs: boolean;
+};
+
+export const DEMO_PASSWORD = 'paint-the-bench';
+
+export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Partial<Config> = {}): Config {
+  const parsed = envSchema.safeParse(env);
+  if (!parsed.success) {
+    const lines = parsed.error.issues.map((i) => `  ${i.path.join('.')}: ${i.message}`).join('\n');
+    throw new Error(`Sablework cannot start: the environment is not valid.\n${lines}`);
+  }
+  const e = parsed.data;
+  const port = e.PORT;
+  return {
+    port,
+    host: e.HOST,
+    dataDir: path.resolve(e.DATA_DIR),
+    databaseUrl: e.DATABASE_URL,
+    publicUrl: (e.PUBLIC_URL ?? `http://localhost:${port}`).replace(/\/$/, ''),
+    sessionSecret: e.SESSION_SECRET ?? 'local-development-secret-change-me',
+    trustProxy: e.TRUST_PROXY,
+    smtpUrl: e.SMTP_URL || undefined,
+    mailFrom: e.MAIL_FROM,
+    mailCapturePort: e.MAIL_CAPTURE_PORT,
+    demo: e.DEMO === undefined || e.DEMO === '' ? !e.SMTP_URL : e.DEMO === 'true' || e.DEMO === '1',
+    bcryptRounds: e.BCRYPT_ROUNDS,
+    logLevel: e.LOG_LEVEL,
+    clock: systemClock,
+    serveClient: true,
+    runJobs: true,
+    ...overrides,
+  };
+}

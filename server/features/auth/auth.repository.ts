@@ -1,0 +1,42 @@
+import type { Db } from '../../lib/db';
+
+export type UserRow = { id: number; email: string; name: string; password_hash: string; email_notices: boolean | number };
+
+export const toUser = (r: UserRow) => ({ id: r.id, email: r.email, name: r.name, emailNotices: Boolean(r.email_notices) });
+
+export function authRepository(db: Db) {
+  return {
+    findUserByEmail: (email: string, trx: Db = db) => trx<UserRow>('users').where({ email: email.toLowerCase() }).first(),
+    findUserById: (id: number, trx: Db = db) => trx<UserRow>('users').where({ id }).first(),
+    async createUser(u: { email: string; name: string; passwordHash: string; now: string }, trx: Db = db) {
+      const [row] = await trx('users')
+        .insert({ email: u.email.toLowerCase(), name: u.name, password_hash: u.passwordHash, email_notices: true, created_at: u.now, updated_at: u.now })
+        .returning('id');
+      return typeof row === 'object' ? (row.id as number) : (row as number);
+    },
+    updateUser: (id: number, patch: Partial<{ name: string; password_hash: string; email_notices: boolean }>, now: string, trx: Db = db) =>
+      trx('users').where({ id }).update({ ...patch, updated_at: now }),
+    memberships: (userId: number) =>
+      db('memberships as m')
+        .join('studios as s', 's.id', 'm.studio_id')
+        .where('m.user_id', userId)
+        .orderBy('s.name')
+        .select('m.studio_id as studioId', 's.name as studioName', 'm.role as role'),
+
+    countFailures: (key: string, since: string) =>
+      db('login_failures').where({ key }).andWhere('at', '>', since).count({ n: '*' }).first().then((r) => Number(r?.n ?? 0)),
+    oldestFailure: (key: string, since: string) =>
+      db('login_failures').where({ key }).andWhere('at', '>', since).min({ at: 'at' }).first().then((r) => (r?.at as string | undefined) ?? null),
+    addFailure: (key: string, at: string) => db('login_failures').insert({ key, at }),
+    clearFailures: (key: string) => db('login_failures').where({ key }).delete(),
+    pruneFailures: (before: string) => db('login_failures').where('at', '<', before).delete(),
+
+    createReset: (r: { userId: number; tokenHash: string; expiresAt: string; now: string }) =>
+      db('password_resets').insert({ user_id: r.userId, token_hash: r.tokenHash, expires_at: r.expiresAt, created_at: r.now }),
+    findReset: (tokenHash: string, trx: Db = db) => trx('password_resets').where({ token_hash: tokenHash }).first(),
+    /** Marks the reset used only if it still was unused: the row count tells whether this caller won. */
+    useReset: (id: number, now: string, trx: Db = db) => trx('password_resets').where({ id }).whereNull('used_at').update({ used_at: now }),
+  };
+}
+
+export type AuthRepository = ReturnType<typeof authRepository>;

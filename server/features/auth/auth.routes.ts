@@ -1,0 +1,63 @@
+import crypto from 'node:crypto';
+import type { PassportStatic } from 'passport';
+import type { RequestHandler } from 'express';
+import { acceptInvitationInput, loginInput, resetConfirmInput, resetRequestInput, signupInput, updateMeInput } from '../../../shared/schemas/auth';
+import { z } from 'zod';
+import type { AuthUser } from '../../lib/policy';
+import { publicRoute, signedIn, user } from '../../lib/policy';
+import { json, type RouteTable } from '../../lib/routes';
+import { signIn, signOut } from '../../lib/session';
+import { validate } from '../../lib/validate';
+import type { InvitationsService } from '../invitations/invitations.service';
+import type { AuthService } from './auth.service';
+
+const tokenParams = z.object({ token: z.string().min(10).max(200) });
+
+/** passport.authenticate('local') with a callback, so our error factory renders its failures. */
+const authenticateWith =
+  (passport: PassportStatic): RequestHandler =>
+  (req, res, next) =>
+    passport.authenticate('local', (err: unknown, u: AuthUser | false) => {
+      if (err) return next(err);
+      if (!u) return next(new Error('local strategy returned no user'));
+      signIn(req, u).then(() => next(), next);
+    })(req, res, next);
+
+export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations: InvitationsService; passport: PassportStatic }) {
+  const { auth, invitations } = deps;
+  const authenticate = authenticateWith(deps.passport);
+
+  r.get('/auth/csrf', publicRoute(), (req, res) => {
+    req.session.csrf ??= crypto.randomBytes(24).toString('base64url');
+    res.set('Cache-Control', 'no-store').json({ token: req.session.csrf });
+  });
+  r.post('/auth/signup', publicRoute(), validate({ body: signupInput }), json(async (req) => {
+    const result = await auth.signup(req.body);
+    await signIn(req, result.user);
+    return result;
+  }, 201));
+  r.post('/auth/login', publicRoute(), validate({ body: loginInput }), authenticate, json((req) => auth.me(user(req).id)));
+  r.post('/auth/logout', publicRoute(), json(async (req, res) => {
+    if (req.session) await signOut(req);
+    res.clearCookie('sablework.sid');
+  }));
+  r.get('/auth/me', signedIn(), json((req) => auth.me(user(req).id)));
+  r.patch('/auth/me', signedIn(), validate({ body: updateMeInput }), json((req) => auth.updateMe(user(req).id, req.body)));
+  r.post('/auth/password-reset', publicRoute(), validate({ body: resetRequestInput }), json(async (req) => {
+    await auth.requestReset(req.body.email);
+    return { ok: true };
+  }, 202));
+  r.post('/auth/password-reset/confirm', publicRoute(), validate({ body: resetConfirmInput }), json(async (req) => {
+    const result = await auth.confirmReset(req.body);
+    await signIn(req, result.user);
+    return result;
+  }));
+
+  r.get('/invitations/:token', publicRoute(), validate({ params: tokenParams }), json((req) => invitations.preview(String(req.params.token))));
+  r.post('/invitations/:token/accept', publicRoute(), validate({ params: tokenParams, body: acceptInvitationInput }), json(async (req) => {
+    const { userId, studioId } = await invitations.accept(String(req.params.token), req.body, req.user?.id);
+    const result = await auth.me(userId);
+    await signIn(req, result.user);
+    return { ...result, studioId };
+  }));
+}

@@ -1,0 +1,71 @@
+import fs from 'node:fs';
+import path from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import knexFactory, { type Knex } from 'knex';
+
+export type Db = Knex;
+
+const migrationsDir = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '../../migrations');
+
+/** Fails start-up with a plain message when DATA_DIR cannot be written. */
+export function ensureWritableDir(dir: string) {
+  try {
+    fs.mkdirSync(dir, { recursive: true });
+    fs.accessSync(dir, fs.constants.W_OK);
+  } catch (err) {
+    const reason = err instanceof Error ? err.message : String(err);
+    throw new Error(`Sablework cannot start: DATA_DIR "${dir}" is not writable (${reason}). Set DATA_DIR to a folder this user can write.`);
+  }
+}
+
+export function openDb(opts: { dataDir: string; databaseUrl?: string }): Db {
+  if (opts.databaseUrl) {
+    return knexFactory({ client: 'pg', connection: opts.databaseUrl, pool: { min: 0, max: 10 } });
+  }
+  ensureWritableDir(opts.dataDir);
+  return knexFactory({
+    client: 'better-sqlite3',
+    connection: { filename: path.join(opts.dataDir, 'sablework.sqlite') },
+    useNullAsDefault: true,
+    pool: {
+      // One connection: better-sqlite3 is synchronous, and a single writer avoids SQLITE_BUSY between our own connections.
+      min: 1,
+      max: 1,
+      afterCreate(conn: { pragma: (s: string) => unknown }, done: (err: Error | null, conn: unknown) => void) {
+        conn.pragma('journal_mode = WAL');
+        conn.pragma('foreign_keys = ON');
+        conn.pragma('busy_timeout = 5000');
+        conn.pragma('synchronous = NORMAL');
+        done(null, conn);
+      },
+    },
+  });
+}
+
+/**
+ * Migrations are imported by our own code rather than Knex's loader, so the same files run under tsx
+ * (the server) and under vitest's transform (the tests).
+ */
+const migrationSource: Knex.MigrationSource<string> = {
+  async getMigrations() {
+    return fs
+      .readdirSync(migrationsDir)
+      .filter((f) => /^\d{14}-[a-z0-9-]+\.ts$/.test(f))
+      .sort();
+  },
+  getMigrationName: (name) => name,
+  getMigration: (name) => import(pathToFileURL(path.join(migrationsDir, name)).href),
+};
+
+export async function migrate(db: Db) {
+  await db.migrate.latest({ migrationSource });
+}
+
+export async function rollbackAll(db: Db) {
+  await db.migrate.rollback({ migrationSource }, true);
+}
+
+/** Runs fn in a transaction; on SQLite this is one connection, so keep bodies short and free of network I/O. */
+export function tx<T>(db: Db, fn: (trx: Knex.Transaction) => Promise<T>): Promise<T> {
+  return db.transaction(fn);
+}

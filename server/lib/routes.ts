@@ -1,0 +1,44 @@
+import type { Request, RequestHandler, Response, Router } from 'express';
+import { isPolicy } from './policy';
+
+type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
+
+/**
+ * The one way to add an API route: the first handler must be a policy (publicRoute, signedIn, allow),
+ * so no route can exist without declaring who may call it.
+ */
+export function routeTable(router: Router) {
+  const add =
+    (method: Method) =>
+    (path: string, policy: RequestHandler, ...handlers: RequestHandler[]) => {
+      if (!isPolicy(policy)) throw new Error(`${method.toUpperCase()} ${path}: the first handler must be a policy`);
+      router[method](path, policy, ...handlers);
+    };
+  return { get: add('get'), post: add('post'), put: add('put'), patch: add('patch'), delete: add('delete') };
+}
+
+export type RouteTable = ReturnType<typeof routeTable>;
+
+/** Wraps a handler that returns the response body; `status` for 201, and 204 when it returns nothing. */
+export const json =
+  (fn: (req: Request, res: Response) => unknown, status = 200): RequestHandler =>
+  async (req, res) => {
+    const body = await fn(req, res);
+    if (res.headersSent) return;
+    if (body === undefined) res.status(204).end();
+    else res.status(status).json(body);
+  };
+
+/** The parsed params/query from validate(). */
+export const params = <T = Record<string, number>>(res: Response) => res.locals.params as T;
+export const query = <T>(res: Response) => res.locals.query as T;
+
+/** Lists `METHOD /api/path` for every route on the API router, read from Express itself. */
+export function listRoutes(router: Router): { method: string; path: string }[] {
+  const out: { method: string; path: string }[] = [];
+  for (const layer of (router as unknown as { stack: { route?: { path: string; methods: Record<string, boolean> } }[] }).stack) {
+    if (!layer.route) continue;
+    for (const m of Object.keys(layer.route.methods)) if (m !== '_all') out.push({ method: m.toUpperCase(), path: `/api${layer.route.path}` });
+  }
+  return out;
+}

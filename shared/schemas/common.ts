@@ -1,0 +1,66 @@
+import { z } from 'zod';
+import { code as currencyRecord } from 'currency-codes';
+
+/** E-mail addresses are compared ignoring case everywhere, so they are stored lower-cased and trimmed. */
+export const email = z
+  .string({ error: 'Enter an e-mail address.' })
+  .trim()
+  .toLowerCase()
+  .max(254, 'That e-mail address is too long.')
+  .pipe(z.email({ error: 'That does not look like an e-mail address.' }));
+
+export const password = z
+  .string({ error: 'Enter a password.' })
+  .min(10, 'Use at least 10 characters.')
+  .max(200, 'Use at most 200 characters.');
+
+export const personName = z
+  .string({ error: 'Enter a name.' })
+  .trim()
+  .min(1, 'Enter a name.')
+  .max(120, 'Use at most 120 characters.');
+
+export const currencyCode = z
+  .string({ error: 'Choose a currency.' })
+  .trim()
+  .toUpperCase()
+  .refine((c) => /^[A-Z]{3}$/.test(c) && currencyRecord(c) !== undefined, 'Use an ISO 4217 currency code such as EUR, USD or JPY.');
+
+export function isTimeZone(tz: string): boolean {
+  try {
+    new Intl.DateTimeFormat('en', { timeZone: tz });
+    return tz.length > 0;
+  } catch {
+    return false;
+  }
+}
+
+export const timeZone = z
+  .string({ error: 'Choose a timezone.' })
+  .trim()
+  .refine(isTimeZone, 'Use a timezone name such as Europe/Berlin or America/Chicago.');
+
+/** Route ids are positive integers; anything else is a 404 at the policy, never a 500. */
+export const id = z.coerce.number().int().positive();
+
+export const optionalText = (max: number) =>
+  z
+    .string()
+    .trim()
+    .max(max, `Use at most ${max} characters.`)
+    .optional()
+    .transform((v) => (v === '' ? undefined : v));
+
+export const pageQuery = z.object({
+  limit: z.coerce.number().int().min(1).max(200).default(50),
+  offset: z.coerce.number().int().min(0).default(0),
+  q: z.string().trim().max(200).optional(),
+});
+export type PageQuery = z.infer<typeof pageQuery>;
+
+export const roles = ['owner', 'painter', 'client'] as const;
+export type Role = (typeof roles)[number];
+
+export type Page<T> = { items: T[]; total: number; limit: number; offset: number };
+
+export type ApiErrorBody = { error: { code: string; message: string; fields?: Record<string, string> } };
