@@ -1,6 +1,6 @@
 // Reference-photo colours: sharp decodes and downsamples, shared/palette clusters. The photo's own
 // colour profile is converted to sRGB by sharp; transparency is flattened onto white.
-import sharp from 'sharp';
+import sharp, { type Metadata } from 'sharp';
 import { clusterPalette, rgbToLabPixels, type PaletteColour, type PaletteOptions } from '../../../shared/palette';
 import { labToHex, rgbToLab } from '../../../shared/color';
 import { errors } from '../errors';
@@ -18,7 +18,7 @@ const open = (buffer: Buffer) => sharp(buffer, { limitInputPixels: MAX_INPUT_PIX
 
 /** Oriented width and height; maps unreadable and oversized images to the app's 415 and 413 errors. */
 async function orientedSize(buffer: Buffer): Promise<{ width: number; height: number }> {
-  let meta: sharp.Metadata;
+  let meta: Metadata;
   try {
     meta = await sharp(buffer).metadata();
   } catch {
