@@ -1,0 +1,77 @@
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { Caller, PASSWORD, startTestApp, twoStudios, type TestApp } from '../support/app';
+
+/**
+ * Who may call what, written out by hand (never derived from the allow() calls it checks).
+ * Columns: anonymous, owner, painter, client of studio A, and the owner of studio B calling studio A.
+ * Studio routes are called on studio A with an empty body: a caller who gets past the policy meets
+ * validation (400) or the resource's own answer; one who does not gets 401, 403 or 404.
+ * Every route on the router must be listed; a new route fails this test until it joins the table.
+ */
+type Row = [method: string, path: string, anon: number, owner: number, painter: number, client: number, stranger: number];
+const FAKE_TOKEN = 'x'.repeat(43);
+
+const table: Row[] = [
+  ['GET', '/api/health', 200, 200, 200, 200, 200],
+  ['GET', '/api/meta', 200, 200, 200, 200, 200],
+  ['GET', '/api/auth/csrf', 200, 200, 200, 200, 200],
+  ['POST', '/api/auth/signup', 400, 400, 400, 400, 400],
+  ['POST', '/api/auth/login', 400, 400, 400, 400, 400],
+  ['POST', '/api/auth/logout', 204, 204, 204, 204, 204],
+  ['GET', '/api/auth/me', 401, 200, 200, 200, 200],
+  ['PATCH', '/api/auth/me', 401, 200, 200, 200, 200],
+  ['POST', '/api/auth/password-reset', 400, 400, 400, 400, 400],
+  ['POST', '/api/auth/password-reset/confirm', 400, 400, 400, 400, 400],
+  ['GET', '/api/invitations/:token', 404, 404, 404, 404, 404],
+  ['POST', '/api/invitations/:token/accept', 400, 400, 400, 400, 400],
+  ['GET', '/api/studios/:studioId', 401, 200, 200, 200, 404],
+  ['PATCH', '/api/studios/:studioId', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/members', 401, 200, 403, 403, 404],
+  ['DELETE', '/api/studios/:studioId/members/:userId', 401, 404, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/invitations', 401, 200, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/invitations', 401, 400, 403, 403, 404],
+  ['DELETE', '/api/studios/:studioId/invitations/:invitationId', 401, 404, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/clients', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/clients', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/clients/:clientId', 401, 200, 200, 403, 404],
+  ['PATCH', '/api/studios/:studioId/clients/:clientId', 401, 200, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/clients/:clientId/invite', 401, 409, 403, 403, 404],
+];
+
+let sw: TestApp;
+let ids: Record<string, string>;
+const who = ['anon', 'owner', 'painter', 'client', 'stranger'] as const;
+const emails = { owner: 'owner-a@studio.test', painter: 'painter-a@studio.test', client: 'client-a@studio.test', stranger: 'owner-b@studio.test' };
+
+beforeAll(async () => {
+  sw = await startTestApp();
+  const { a } = await twoStudios(sw);
+  ids = { studioId: String(a.studioId), clientId: String(a.clientId), userId: '999999', invitationId: '999999', token: FAKE_TOKEN };
+});
+afterAll(() => sw.stop());
+
+async function callerFor(role: (typeof who)[number]) {
+  const c = new Caller(sw.app);
+  if (role !== 'anon') await c.post('/api/auth/login', { email: emails[role], password: PASSWORD });
+  return c;
+}
+
+describe('role × route table', () => {
+  it('lists every route on the router, and nothing that is not there', () => {
+    const onRouter = sw.routes().map((r) => `${r.method} ${r.path}`).sort();
+    const inTable = table.map(([m, p]) => `${m} ${p}`).sort();
+    expect(onRouter).toEqual(inTable);
+  });
+
+  it.each(table)('%s %s', async (method, path, ...expected) => {
+    const url = path.replace(/:(\w+)/g, (_, k: string) => ids[k]);
+    const got: number[] = [];
+    for (const role of who) {
+      const c = await callerFor(role);
+      const m = method.toLowerCase() as 'get' | 'post' | 'patch' | 'delete' | 'put';
+      const res = m === 'get' ? await c.get(url) : await c[m](url, {});
+      got.push(res.status);
+    }
+    expect(Object.fromEntries(who.map((w, i) => [w, got[i]]))).toEqual(Object.fromEntries(who.map((w, i) => [w, expected[i]])));
+  });
+});

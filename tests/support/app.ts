@@ -1,0 +1,121 @@
+import fs from 'node:fs';
+import os from 'node:os';
+import path from 'node:path';
+import request from 'supertest';
+import type { Express } from 'express';
+import { createApp, type SableworkApp } from '../../server/app';
+import { loadConfig, type Config } from '../../server/config';
+import { manualClock } from '../../server/lib/clock';
+
+export type TestApp = SableworkApp & { clock: ReturnType<typeof manualClock>; dataDir: string; stop(): Promise<void> };
+
+/** A real app on a fresh temporary DATA_DIR with a clock the test moves. */
+export async function startTestApp(overrides: Partial<Config> & { dataDir?: string } = {}): Promise<TestApp> {
+  const dataDir = overrides.dataDir ?? fs.mkdtempSync(path.join(os.tmpdir(), 'sablework-test-'));
+  const clock = manualClock();
+  const config = loadConfig(
+    { DATA_DIR: dataDir },
+    { clock, logLevel: 'silent', runJobs: false, serveClient: false, demo: false, bcryptRounds: 4, publicUrl: 'http://sablework.test', ...overrides },
+  );
+  const sw = await createApp(config);
+  return Object.assign(sw, {
+    clock,
+    dataDir,
+    async stop() {
+      await sw.close();
+      if (!overrides.dataDir) fs.rmSync(dataDir, { recursive: true, force: true });
+    },
+  });
+}
+
+/** A browser-like caller: keeps cookies, fetches the CSRF token and sends it on unsafe methods. */
+export class Caller {
+  agent: ReturnType<typeof request.agent>;
+  private token: string | null = null;
+  constructor(app: Express) {
+    this.agent = request.agent(app);
+  }
+  async csrf() {
+    const res = await this.agent.get('/api/auth/csrf').expect(200);
+    this.token = res.body.token;
+    return this.token!;
+  }
+  get(url: string) {
+    return this.agent.get(url);
+  }
+  private async unsafe(method: 'post' | 'put' | 'patch' | 'delete', url: string, body?: unknown) {
+    const token = this.token ?? (await this.csrf());
+    const req = this.agent[method](url).set('x-csrf-token', token);
+    const res = await (body === undefined ? req : req.send(body as object));
+    // The session id changes at sign-in and sign-out; the next unsafe call needs the new session's token.
+    if (/\/auth\/(login|logout|signup)|\/accept$|password-reset\/confirm/.test(url)) this.token = null;
+    return res;
+  }
+  post = (url: string, body?: unknown) => this.unsafe('post', url, body);
+  put = (url: string, body?: unknown) => this.unsafe('put', url, body);
+  patch = (url: string, body?: unknown) => this.unsafe('patch', url, body);
+  delete = (url: string) => this.unsafe('delete', url);
+}
+
+export const PASSWORD = 'correct horse battery';
+
+export async function signUp(sw: TestApp, who: { email: string; name?: string; studioName?: string; currency?: string }) {
+  const c = new Caller(sw.app);
+  const res = await c.post('/api/auth/signup', {
+    name: who.name ?? 'Test Person',
+    email: who.email,
+    password: PASSWORD,
+    studioName: who.studioName ?? 'Test Studio',
+    currency: who.currency ?? 'EUR',
+    timezone: 'Europe/Berlin',
+  });
+  if (res.status !== 201) throw new Error(`signup failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return { caller: c, user: res.body.user, studioId: res.body.memberships[0].studioId as number };
+}
+
+export async function signInAs(sw: TestApp, email: string, password = PASSWORD) {
+  const c = new Caller(sw.app);
+  const res = await c.post('/api/auth/login', { email, password });
+  if (res.status !== 200) throw new Error(`login failed: ${res.status} ${JSON.stringify(res.body)}`);
+  return c;
+}
+
+/** Delivers the outbox and returns the captured messages to an address, newest last. */
+export async function mailTo(sw: TestApp, to: string) {
+  await sw.jobs.deliverMail();
+  return sw.db('captured_mail').whereLike('to', `%${to}%`).orderBy('id');
+}
+
+export const linkIn = (text: string, pathPrefix: string) => {
+  const m = text.match(new RegExp(`https?://[^\\s]+${pathPrefix}([A-Za-z0-9_-]+)`));
+  if (!m) throw new Error(`no ${pathPrefix} link in: ${text}`);
+  return m[1];
+};
+
+/**
+ * Two studios with an owner, a painter and a client each (clients accept real invitations),
+ * for role and isolation tests.
+ */
+export async function twoStudios(sw: TestApp) {
+  const make = async (tag: string) => {
+    const owner = await signUp(sw, { email: `owner-${tag}@studio.test`, studioName: `Studio ${tag}` });
+    const s = owner.studioId;
+    const inv = await owner.caller.post(`/api/studios/${s}/invitations`, { email: `painter-${tag}@studio.test`, role: 'painter' });
+    if (inv.status !== 201) throw new Error(JSON.stringify(inv.body));
+    const [pm] = await mailTo(sw, `painter-${tag}@studio.test`);
+    const painter = new Caller(sw.app);
+    await painter.post(`/api/invitations/${linkIn(pm.text, '/invite/')}/accept`, { name: `Painter ${tag}`, password: PASSWORD }).then((r) => {
+      if (r.status !== 200) throw new Error(JSON.stringify(r.body));
+    });
+    const cr = await owner.caller.post(`/api/studios/${s}/clients`, { name: `Client ${tag}`, email: `client-${tag}@studio.test` });
+    const clientId = cr.body.id as number;
+    await owner.caller.post(`/api/studios/${s}/clients/${clientId}/invite`);
+    const [cm] = await mailTo(sw, `client-${tag}@studio.test`);
+    const client = new Caller(sw.app);
+    await client.post(`/api/invitations/${linkIn(cm.text, '/invite/')}/accept`, { name: `Client ${tag}`, password: PASSWORD }).then((r) => {
+      if (r.status !== 200) throw new Error(JSON.stringify(r.body));
+    });
+    return { studioId: s, owner: owner.caller, painter, client, clientId };
+  };
+  return { a: await make('a'), b: await make('b') };
+}
