@@ -14,7 +14,7 @@ export function ensureWritableDir(dir: string) {
     fs.accessSync(dir, fs.constants.W_OK);
   } catch (err) {
     const reason = err instanceof Error ? err.message : String(err);
-    throw new Error(`Sablework cannot start: DATA_DIR "${dir}" is not writable (${reason}). Set DATA_DIR to a folder this user can write.`);
+    throw new Error(`Sablework cannot start: DATA_DIR "${dir}" is not writable (${reason}). Set DATA_DIR to a folder this user can write.`, { cause: err });
   }
 }
 
