@@ -38,6 +38,7 @@ export async function up(knex: Knex) {
     t.integer('client_id').notNullable().references('clients.id');
     t.string('title', 120).notNullable();
     t.text('brief');
+    t.text('scheme_notes'); // the client's notes for the colour scheme
     t.string('due_date', 10); // local date yyyy-mm-dd in the studio's timezone
     t.string('priority', 12).notNullable().defaultTo('normal');
     t.string('status', 16).notNullable().defaultTo('enquiry');

@@ -176,7 +176,7 @@ export async function createApp(config: Config) {
       return;
     }
     if (e.headers) res.set(e.headers);
-    res.status(e.status).json({ error: { code: e.code, message: e.message, ...(e.fields ? { fields: e.fields } : {}) } });
+    res.status(e.status).json({ error: { code: e.code, message: e.message, ...(e.fields ? { fields: e.fields } : {}), ...e.extra } });
   };
   app.use(errorHandler);
 

@@ -6,6 +6,8 @@ export class AppError extends Error {
     message: string,
     public fields?: Record<string, string>,
     public headers?: Record<string, string>,
+    /** Extra members of the error body, e.g. `allowed` transitions on a 409. */
+    public extra?: Record<string, unknown>,
   ) {
     super(message);
   }
@@ -19,7 +21,7 @@ export const errors = {
   forbidden: (message = 'Your role in this studio does not allow that.') => new AppError(403, 'forbidden', message),
   csrf: () => new AppError(403, 'csrf', 'This form has expired. Reload the page and try again.'),
   notFound: (what = 'That') => new AppError(404, 'not_found', `${what} was not found.`),
-  conflict: (message: string, code = 'conflict') => new AppError(409, code, message),
+  conflict: (message: string, code = 'conflict', extra?: Record<string, unknown>) => new AppError(409, code, message, undefined, undefined, extra),
   gone: (message: string) => new AppError(410, 'gone', message),
   tooLarge: (message = 'That is larger than we accept.') => new AppError(413, 'too_large', message),
   unsupported: (message: string) => new AppError(415, 'unsupported_media', message),
