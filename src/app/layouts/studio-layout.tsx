@@ -1,0 +1,165 @@
+import { Suspense, type ReactNode } from 'react';
+import { useQuery } from '@tanstack/react-query';
+import { Link, NavLink, Outlet, useParams } from 'react-router-dom';
+import type { Membership, MeResponse } from '../../../shared/schemas/auth';
+import { BrandMark } from '../../components/layout/brand';
+import { ErrorNote } from '../../components/ui/error-note';
+import { LoadingBlock } from '../../components/ui/spinner';
+import { isApiError } from '../../lib/api-client';
+import { cn } from '../../lib/cn';
+import { StudioScopeProvider } from '../../lib/studio-scope';
+import { useMe } from '../../features/auth/api/get-me';
+import { studioQueryOptions } from '../../features/studios/api/get-studio';
+import { SignOutButton } from '../components/sign-out-button';
+import { SkipLink } from '../components/skip-link';
+import { StudioSwitcher } from '../components/studio-switcher';
+import { navFor } from '../nav';
+import { NotFoundScreen } from '../routes/not-found';
+
+function Header({ me, membership, studioName }: { me: MeResponse; membership: Membership; studioName: string }) {
+  const base = `/studio/${membership.studioId}`;
+  return (
+    <header className="sticky top-0 z-30 border-b border-primer-300 bg-bone-50">
+      <div className="flex min-h-14 items-center gap-3 px-3 sm:px-5">
+        <Link to={base} className="flex min-w-0 items-center gap-2 rounded-control text-sable-900 no-underline">
+          <BrandMark className="shrink-0" />
+          <span className="min-w-0">
+            <span className="block truncate text-sm font-semibold sm:text-base">{studioName}</span>
+            <span className="block text-xs text-sable-600">Sablework</span>
+          </span>
+        </Link>
+        <div className="ml-auto flex items-center gap-1 sm:gap-3">
+          <StudioSwitcher memberships={me.memberships} currentId={membership.studioId} />
+          <span className="hidden max-w-48 truncate text-sm text-sable-600 md:inline" title={me.user.email}>
+            {me.user.name}
+          </span>
+          <SignOutButton />
+        </div>
+      </div>
+    </header>
+  );
+}
+
+function Rail({ membership }: { membership: Membership }) {
+  const items = navFor(membership.role);
+  const base = `/studio/${membership.studioId}`;
+  return (
+    <nav aria-label="Studio" className="hidden w-56 shrink-0 border-r border-primer-300 bg-bone-50 sm:block">
+      <ul className="sticky top-14 flex flex-col gap-1 p-3">
+        {items.map((item) => (
+          <li key={item.label}>
+            <NavLink
+              to={item.to ? `${base}/${item.to}` : base}
+              end={item.to === ''}
+              className={({ isActive }) =>
+                cn(
+                  'flex min-h-10 items-center gap-3 rounded-control px-3 text-sm text-sable-900 no-underline hover:bg-primer-100',
+                  isActive && 'bg-verdigris-100 font-semibold hover:bg-verdigris-100',
+                )
+              }
+            >
+              <item.icon aria-hidden="true" className="size-4 shrink-0" />
+              {item.label}
+            </NavLink>
+          </li>
+        ))}
+      </ul>
+    </nav>
+  );
+}
+
+/** The rail becomes a bar along the bottom edge on a phone; it scrolls sideways once it holds more. */
+function BottomBar({ membership }: { membership: Membership }) {
+  const items = navFor(membership.role);
+  const base = `/studio/${membership.studioId}`;
+  return (
+    <nav aria-label="Studio" className="fixed inset-x-0 bottom-0 z-30 border-t border-primer-300 bg-bone-50 sm:hidden">
+      <ul className="flex overflow-x-auto">
+        {items.map((item) => (
+          <li key={item.label} className="min-w-[4.5rem] flex-1">
+            <NavLink
+              to={item.to ? `${base}/${item.to}` : base}
+              end={item.to === ''}
+              className={({ isActive }) =>
+                cn(
+                  'flex min-h-14 flex-col items-center justify-center gap-0.5 px-1 text-xs text-sable-900 no-underline',
+                  isActive && 'bg-verdigris-100 font-semibold',
+                )
+              }
+            >
+              <item.icon aria-hidden="true" className="size-5" />
+              {item.label}
+            </NavLink>
+          </li>
+        ))}
+      </ul>
+    </nav>
+  );
+}
+
+function Main({ children, className }: { children: ReactNode; className?: string }) {
+  return (
+    <main id="main" tabIndex={-1} className={cn('min-w-0 flex-1 px-4 py-6 sm:px-8 sm:py-8', className)}>
+      {children}
+    </main>
+  );
+}
+
+/** /studio/:studioId — the frame is chosen by the caller's role in that studio. */
+export function StudioLayout() {
+  const { studioId: param } = useParams();
+  const studioId = Number(param);
+  const me = useMe().data;
+  const membership = me?.memberships.find((m) => m.studioId === studioId);
+  const studio = useQuery({ ...studioQueryOptions(studioId), enabled: !!membership });
+
+  // Not a member (or no such studio): the same answer either way, as the API gives.
+  if (!me || !membership) return <NotFoundScreen />;
+
+  const studioName = studio.data?.name ?? membership.studioName;
+  let content;
+  if (studio.isPending) content = <LoadingBlock />;
+  else if (isApiError(studio.error, 404)) return <NotFoundScreen />;
+  else if (studio.error) content = <ErrorNote title="This studio did not load">{studio.error.message}</ErrorNote>;
+  else
+    content = (
+      <StudioScopeProvider
+        value={{
+          studioId,
+          userId: me.user.id,
+          role: membership.role,
+          studioName,
+          timezone: studio.data.timezone,
+          currency: studio.data.currency,
+        }}
+      >
+        <Suspense fallback={<LoadingBlock />}>
+          <Outlet />
+        </Suspense>
+      </StudioScopeProvider>
+    );
+
+  if (membership.role === 'client') {
+    return (
+      <div className="flex min-h-dvh flex-col">
+        <SkipLink />
+        <Header me={me} membership={membership} studioName={studioName} />
+        <Main className="mx-auto w-full max-w-3xl">{content}</Main>
+      </div>
+    );
+  }
+
+  return (
+    <div className="flex min-h-dvh flex-col">
+      <SkipLink />
+      <Header me={me} membership={membership} studioName={studioName} />
+      <div className="flex flex-1">
+        <Rail membership={membership} />
+        <Main className="pb-24 sm:pb-8">
+          <div className="mx-auto max-w-5xl">{content}</div>
+        </Main>
+      </div>
+      <BottomBar membership={membership} />
+    </div>
+  );
+}

@@ -1,0 +1,25 @@
+import { House, Settings, UserRoundCog, Users, type LucideIcon } from 'lucide-react';
+import type { Role } from '../../shared/schemas/common';
+
+export type NavItem = {
+  /** Relative to /studio/:studioId; '' is the studio's home. */
+  to: string;
+  label: string;
+  icon: LucideIcon;
+  roles: readonly Role[];
+};
+
+/**
+ * The studio's rail, top to bottom. Later screens slot in here (Bench, Commissions,
+ * Quotes & invoices, Paints & recipes, Calendar) with the roles that may open them.
+ */
+export const STUDIO_NAV: readonly NavItem[] = [
+  { to: '', label: 'Home', icon: House, roles: ['owner', 'painter'] },
+  { to: 'clients', label: 'Clients', icon: Users, roles: ['owner', 'painter'] },
+  { to: 'team', label: 'Team', icon: UserRoundCog, roles: ['owner'] },
+  { to: 'settings', label: 'Settings', icon: Settings, roles: ['owner'] },
+];
+
+export function navFor(role: Role): NavItem[] {
+  return STUDIO_NAV.filter((item) => item.roles.includes(role));
+}

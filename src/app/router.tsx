@@ -1,0 +1,89 @@
+import { lazy, Suspense, type ComponentType, type ReactNode } from 'react';
+import { createBrowserRouter, Navigate, RouterProvider, type RouteObject } from 'react-router-dom';
+import { LoadingBlock } from '../components/ui/spinner';
+import { useMe } from '../features/auth/api/get-me';
+import { homePathFor } from '../features/auth/home-path';
+import { RequireAuth, RequireRole } from './guards';
+import { RouteError } from './route-error';
+import { NotFoundScreen } from './routes/not-found';
+
+// Each screen is its own chunk, loaded when first opened.
+const SignIn = lazy(() => import('./routes/sign-in'));
+const SignUp = lazy(() => import('./routes/sign-up'));
+const ForgotPassword = lazy(() => import('./routes/forgot-password'));
+const ResetPassword = lazy(() => import('./routes/reset-password'));
+const Invite = lazy(() => import('./routes/invite'));
+const Studios = lazy(() => import('./routes/studios'));
+const StudioLayout = lazy(() => import('./routes/studio-layout'));
+const StudioHome = lazy(() => import('./routes/studio-home'));
+const Clients = lazy(() => import('./routes/clients'));
+const ClientNew = lazy(() => import('./routes/client-new'));
+const ClientDetail = lazy(() => import('./routes/client-detail'));
+const Team = lazy(() => import('./routes/team'));
+const Settings = lazy(() => import('./routes/settings'));
+const StudioNotFound = lazy(() => import('./routes/studio-not-found'));
+
+function screen(Screen: ComponentType): ReactNode {
+  return (
+    <Suspense fallback={<LoadingBlock />}>
+      <Screen />
+    </Suspense>
+  );
+}
+
+/** "/" goes wherever the person belongs: their studio, the chooser, or sign-in. */
+function HomeRedirect() {
+  const me = useMe();
+  if (me.isPending) return <LoadingBlock />;
+  if (!me.data) return <Navigate to="/sign-in" replace />;
+  return <Navigate to={homePathFor(me.data)} replace />;
+}
+
+const STAFF = ['owner', 'painter'] as const;
+const OWNER = ['owner'] as const;
+
+export const routes: RouteObject[] = [
+  {
+    errorElement: <RouteError />,
+    children: [
+      { path: '/', element: <HomeRedirect /> },
+      { path: '/sign-in', element: screen(SignIn) },
+      { path: '/sign-up', element: screen(SignUp) },
+      { path: '/forgot-password', element: screen(ForgotPassword) },
+      { path: '/reset-password/:token', element: screen(ResetPassword) },
+      { path: '/invite/:token', element: screen(Invite) },
+      {
+        element: <RequireAuth />,
+        children: [
+          { path: '/studios', element: screen(Studios) },
+          {
+            path: '/studio/:studioId',
+            element: screen(StudioLayout),
+            children: [
+              { index: true, element: <StudioHome /> },
+              {
+                path: 'clients',
+                element: <RequireRole roles={STAFF} />,
+                children: [
+                  { index: true, element: <Clients /> },
+                  { path: 'new', element: <RequireRole roles={OWNER}><ClientNew /></RequireRole> },
+                  { path: ':clientId', element: <ClientDetail /> },
+                ],
+              },
+              { path: 'team', element: <RequireRole roles={OWNER}><Team /></RequireRole> },
+              { path: 'settings', element: <RequireRole roles={OWNER}><Settings /></RequireRole> },
+              { path: '*', element: <StudioNotFound /> },
+            ],
+          },
+        ],
+      },
+      { path: '*', element: <NotFoundScreen /> },
+    ],
+  },
+];
+
+const router = createBrowserRouter(routes);
+
+export function AppRouter() {
+  return <RouterProvider router={router} />;
+}

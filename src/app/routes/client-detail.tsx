@@ -1,0 +1,1 @@
+export { ClientDetailRoute as default } from '../../features/clients/routes/client-detail';

@@ -1,0 +1,1 @@
+export { ClientNewRoute as default } from '../../features/clients/routes/client-new';

@@ -1,0 +1,1 @@
+export { ClientsListRoute as default } from '../../features/clients/routes/clients-list';

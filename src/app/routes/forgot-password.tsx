@@ -1,0 +1,1 @@
+export { ForgotPasswordRoute as default } from '../../features/auth/routes/forgot-password';

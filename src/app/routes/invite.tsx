@@ -1,0 +1,1 @@
+export { AcceptInvitationRoute as default } from '../../features/invitations/routes/accept-invitation';

@@ -1,0 +1,1 @@
+export { ResetPasswordRoute as default } from '../../features/auth/routes/reset-password';

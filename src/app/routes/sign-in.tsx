@@ -1,0 +1,1 @@
+export { SignInRoute as default } from '../../features/auth/routes/sign-in';

@@ -1,0 +1,1 @@
+export { SignUpRoute as default } from '../../features/auth/routes/sign-up';

@@ -1,0 +1,1 @@
+export { StudioLayout as default } from '../layouts/studio-layout';
