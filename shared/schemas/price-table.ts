@@ -355,10 +355,13 @@ export function defaultPriceTable(currencyCode: string): PriceTable {
     materialsPerFigure: ofRate(5),
     minimumOrder: ofRate(300),
     rush: { weeks: 4, surchargeBp: 2500 },
-    discounts: [
-      { minTotal: ofRate(2000), bp: 500 },
-      { minTotal: ofRate(5000), bp: 1000 },
-    ],
+    discounts:
+      rate === 0
+        ? []
+        : [
+            { minTotal: ofRate(2000), bp: 500 },
+            { minTotal: ofRate(5000), bp: 1000 },
+          ],
     tax: { rateBp: 0, label: 'Tax', pricesIncludeTax: false, taxId: '' },
     depositBp: 5000,
     learningRate: 0.9,
