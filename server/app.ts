@@ -133,7 +133,7 @@ export async function createApp(config: Config) {
     resave: false,
     saveUninitialized: false,
     rolling: true,
-    cookie: { httpOnly: true, sameSite: 'lax', secure: config.publicUrl.startsWith('https:') && config.trustProxy ? 'auto' : false, maxAge: 14 * 24 * 3600_000 },
+    cookie: { httpOnly: true, sameSite: 'lax', secure: config.trustProxy ? 'auto' : config.publicUrl.startsWith('https:'), maxAge: 14 * 24 * 3600_000 },
   });
 
   const csrf: RequestHandler = (req, _res, next) => {
