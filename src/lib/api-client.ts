@@ -103,13 +103,16 @@ const FALLBACK_MESSAGES: Record<number, string> = {
   429: 'Too many attempts. Wait a little and try again.',
 };
 
-async function toApiError(res: Response): Promise<ApiError> {
-  let body: Partial<ApiErrorBody> | null = null;
+async function readErrorBody(res: Response): Promise<Partial<ApiErrorBody> | null> {
   try {
-    body = (await res.json()) as Partial<ApiErrorBody>;
+    return (await res.json()) as Partial<ApiErrorBody>;
   } catch {
-    body = null;
+    return null;
   }
+}
+
+async function toApiError(res: Response): Promise<ApiError> {
+  const body = await readErrorBody(res);
   const e = body?.error;
   const status = res.status;
   return new ApiError({

@@ -1,5 +1,5 @@
 import { useEffect, useId, useRef, useState } from 'react';
-import { Link, useLocation } from 'react-router-dom';
+import { Link } from 'react-router-dom';
 import { Check, ChevronsUpDown } from 'lucide-react';
 import type { Membership } from '../../../shared/schemas/auth';
 import { cn } from '../../lib/cn';
@@ -12,10 +12,6 @@ export function StudioSwitcher({ memberships, currentId }: { memberships: Member
   const wrap = useRef<HTMLDivElement>(null);
   const button = useRef<HTMLButtonElement>(null);
   const listId = useId();
-  const location = useLocation();
-
-  useEffect(() => setOpen(false), [location.pathname]);
-
   useEffect(() => {
     if (!open) return;
     const onDown = (e: PointerEvent) => {
@@ -64,6 +60,7 @@ export function StudioSwitcher({ memberships, currentId }: { memberships: Member
               <li key={m.studioId}>
                 <Link
                   to={`/studio/${m.studioId}`}
+                  onClick={() => setOpen(false)}
                   aria-current={current ? 'page' : undefined}
                   className={cn(
                     'flex items-center justify-between gap-2 rounded-control px-3 py-2 text-sm text-sable-900 no-underline hover:bg-verdigris-100',
@@ -80,7 +77,7 @@ export function StudioSwitcher({ memberships, currentId }: { memberships: Member
             );
           })}
         </ul>
-        <Link to="/studios" className="mt-1 block rounded-control border-t border-primer-300 px-3 py-2 text-sm">
+        <Link to="/studios" onClick={() => setOpen(false)} className="mt-1 block rounded-control border-t border-primer-300 px-3 py-2 text-sm">
           All studios
         </Link>
       </div>

@@ -1,13 +1,16 @@
 import { useMemo, type ComponentProps } from 'react';
 import { SelectField } from '../ui/field';
 
-function allZones(extra: string[]): string[] {
-  let zones: string[] = [];
+function browserZones(): string[] {
   try {
-    zones = Intl.supportedValuesOf('timeZone');
+    return Intl.supportedValuesOf('timeZone');
   } catch {
-    zones = [];
+    return [];
   }
+}
+
+function allZones(extra: string[]): string[] {
+  const zones = browserZones();
   const set = new Set([...zones, 'UTC', ...extra.filter(Boolean)]);
   return [...set].sort((a, b) => a.localeCompare(b));
 }

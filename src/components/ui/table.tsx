@@ -22,7 +22,7 @@ export function TBody({ children }: { children: ReactNode }) {
 }
 
 export function Tr({ className, ...rest }: ComponentProps<'tr'>) {
-  return <tr className={cn('align-top', className)} {...rest} />;
+  return <tr className={cn('align-middle', className)} {...rest} />;
 }
 
 export function Th({ className, scope = 'col', ...rest }: ComponentProps<'th'>) {

@@ -15,7 +15,7 @@ export function DemoAccounts({ password, onPick }: { password: string; onPick: (
         Try the demo studio
       </h2>
       <p className="mt-1 text-sable-600">
-        Every demo account uses the password <code className="rounded-control bg-primer-100 px-1 py-0.5 font-mono text-sable-900">{password}</code>
+        Every demo account uses the password <code className="rounded-control bg-primer-100 px-1 py-0.5 font-mono whitespace-nowrap text-sable-900">{password}</code>
       </p>
       <ul className="mt-3 divide-y divide-primer-300">
         {DEMO_ACCOUNTS.map((a) => (

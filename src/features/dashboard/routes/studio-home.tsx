@@ -35,7 +35,7 @@ export function StudioHomeRoute({ userName }: { userName: string }) {
       <>
         <PageTitle title={`Hello, ${firstName(userName)}`} description={`${studioName} · ${today}`} />
         <div className="flex flex-col gap-6">
-          <Card title="Getting the studio ready" description="Two things to do first; the rest of the bench follows.">
+          <Card title="Getting the studio ready" description="A few first steps; the rest of the bench follows.">
             <div className="flex flex-wrap gap-2">
               <ButtonLink to="clients">
                 <Users aria-hidden="true" className="size-4" />

@@ -52,8 +52,8 @@ export function StudioSettingsForm({ studio, onSaved }: { studio: Studio; onSave
       {formError && <ErrorNote>{formError}</ErrorNote>}
       <TextField label="Studio name" autoComplete="organization" error={errors.name?.message} {...register('name')} />
       <TextField
-        label="Short address"
-        hint="Lower-case letters, digits and dashes. It names your studio's public page, so keep it short and easy to say."
+        label="Public page address"
+        hint="The last part of your studio's public link: lower-case letters, digits and dashes, such as bramble-minis."
         autoCapitalize="none"
         spellCheck={false}
         error={errors.slug?.message}
