@@ -1,0 +1,27 @@
+import type { Db } from '../../lib/db';
+
+export type ActivityRow = {
+  id: number;
+  at: string;
+  user_id: number | null;
+  user_name: string | null;
+  action: string;
+  detail: string;
+};
+
+export function activityRepository(db: Db) {
+  return {
+    insert: (trx: Db, e: { studioId: number; commissionId: number | null; userId: number | null; action: string; detail: Record<string, unknown>; at: string }) =>
+      trx('activity').insert({ studio_id: e.studioId, commission_id: e.commissionId, user_id: e.userId, action: e.action, detail: JSON.stringify(e.detail), at: e.at }),
+    /** Newest first. */
+    list: (studioId: number, commissionId: number, limit: number): Promise<ActivityRow[]> =>
+      db('activity as a')
+        .leftJoin('users as u', 'u.id', 'a.user_id')
+        .where({ 'a.studio_id': studioId, 'a.commission_id': commissionId })
+        .orderBy([{ column: 'a.at', order: 'desc' }, { column: 'a.id', order: 'desc' }])
+        .limit(limit)
+        .select('a.id', 'a.at', 'a.user_id', 'u.name as user_name', 'a.action', 'a.detail'),
+  };
+}
+
+export type ActivityRepository = ReturnType<typeof activityRepository>;

@@ -1,0 +1,191 @@
+import {
+  allowedTransitions,
+  minutesToHours,
+  progressFromTotals,
+  refusedTransitionMessage,
+  type CommissionStatus,
+  type ProgressTotals,
+} from '../../../shared/commission-lifecycle';
+import type { Page } from '../../../shared/schemas/common';
+import type {
+  CommissionDetail,
+  CommissionListQuery,
+  CommissionSummary,
+  CreateCommissionInput,
+  SchemeNotesInput,
+  TransitionInput,
+  UpdateCommissionInput,
+} from '../../../shared/schemas/commissions';
+import { iso, type Clock } from '../../lib/clock';
+import type { Db } from '../../lib/db';
+import { errors } from '../../lib/errors';
+import type { ActivityService } from '../activity/activity.service';
+import type { Actor, FiguresService } from '../figures/figures.service';
+import type { CommissionListRow, CommissionRow, CommissionsRepository } from './commissions.repository';
+
+const num = (v: number | string | null | undefined) => Number(v ?? 0);
+
+function summaryOf(r: CommissionRow, totals: ProgressTotals, figureCount: number, modelCount: number): CommissionSummary {
+  return {
+    id: r.id,
+    title: r.title,
+    status: r.status,
+    priority: r.priority,
+    dueDate: r.due_date,
+    client: { id: r.client_id, name: r.client_name },
+    figureCount,
+    modelCount,
+    progress: progressFromTotals(totals),
+    createdAt: r.created_at,
+    updatedAt: r.updated_at,
+  };
+}
+
+const listTotals = (r: CommissionListRow): ProgressTotals => ({
+  stages: num(r.stages),
+  skipped: num(r.skipped),
+  done: num(r.done),
+  minutesTotal: num(r.minutes_total),
+  minutesDone: num(r.minutes_done),
+});
+
+export function commissionsService(deps: { db: Db; repo: CommissionsRepository; figures: FiguresService; activity: ActivityService; clock: Clock }) {
+  const { db, repo, figures, activity, clock } = deps;
+  const now = () => iso(clock.now());
+
+  /** The commission if the actor may see it: the studio's team sees all, a client only their own (else 404). */
+  async function visible(actor: Actor, id: number, trx: Db = db) {
+    const row = await repo.get(actor.studioId, id, trx);
+    if (!row || (actor.role === 'client' && row.client_id !== actor.clientId)) throw errors.notFound('That commission');
+    return row;
+  }
+
+  async function transitionIn(trx: Db, by: { studioId: number; userId: number | null }, id: number, to: CommissionStatus, reason?: string) {
+    const row = await repo.get(by.studioId, id, trx);
+    if (!row) throw errors.notFound('That commission');
+    const allowed = allowedTransitions(row.status, row.status_before_hold);
+    if (!allowed.includes(to)) throw errors.conflict(refusedTransitionMessage(row.status, to, row.status_before_hold), 'invalid_transition', { allowed });
+    if (to === 'cancelled' && !reason) throw errors.field('reason', 'Give a reason for cancelling.');
+    await repo.update(trx, by.studioId, id, {
+      status: to,
+      // On hold remembers where it came from, so it can go back there.
+      status_before_hold: to === 'on_hold' ? row.status : null,
+      ...(to === 'cancelled' ? { cancel_reason: reason } : {}),
+      updated_at: now(),
+    });
+    await activity.record(trx, {
+      studioId: by.studioId,
+      commissionId: id,
+      userId: by.userId,
+      action: 'commission.status',
+      detail: { from: row.status, to, ...(reason ? { reason } : {}) },
+    });
+  }
+
+  async function detail(actor: Actor, id: number): Promise<CommissionDetail> {
+    const row = await visible(actor, id);
+    const forClient = actor.role === 'client';
+    const v = await figures.views(actor.studioId, { commissionIds: [id] }, forClient);
+    return {
+      ...summaryOf(row, v.totals, v.figures.length, v.figures.reduce((n, f) => n + f.quantity, 0)),
+      brief: row.brief,
+      schemeNotes: row.scheme_notes,
+      cancelReason: row.cancel_reason,
+      statusBeforeHold: row.status === 'on_hold' ? row.status_before_hold : null,
+      allowedTransitions: allowedTransitions(row.status, row.status_before_hold),
+      figures: v.figures,
+      loggedHours: forClient ? null : minutesToHours(v.loggedMinutes),
+    };
+  }
+
+  return {
+    async list(actor: Actor, q: CommissionListQuery): Promise<Page<CommissionSummary>> {
+      // A client sees only the commissions of their own client record; without one, none.
+      const onlyClientId = actor.role === 'client' ? (actor.clientId ?? -1) : undefined;
+      const { rows, total } = await repo.list(actor.studioId, { ...q, onlyClientId });
+      return {
+        items: rows.map((r) => summaryOf(r, listTotals(r), num(r.figure_count), num(r.model_count))),
+        total,
+        limit: q.limit,
+        offset: q.offset,
+      };
+    },
+
+    get: detail,
+
+    async create(actor: Actor, input: CreateCommissionInput) {
+      const { studioId } = actor;
+      if (!(await repo.clientExists(studioId, input.clientId))) throw errors.field('clientId', 'Choose a client of this studio.');
+      const id = await db.transaction(async (trx) => {
+        const t = now();
+        const commissionId = await repo.insert(trx, {
+          studio_id: studioId,
+          client_id: input.clientId,
+          title: input.title,
+          brief: input.brief ?? null,
+          due_date: input.dueDate ?? null,
+          priority: input.priority ?? 'normal',
+          status: 'enquiry',
+          created_by: actor.userId,
+          created_at: t,
+          updated_at: t,
+        });
+        await activity.record(trx, { studioId, commissionId, userId: actor.userId, action: 'commission.created', detail: { title: input.title } });
+        for (const [i, f] of (input.figures ?? []).entries()) await figures.addInTransaction(trx, actor, commissionId, f, { prefix: `figures.${i}.` });
+        return commissionId;
+      });
+      return detail(actor, id);
+    },
+
+    async update(actor: Actor, id: number, input: UpdateCommissionInput) {
+      await db.transaction(async (trx) => {
+        const row = await visible(actor, id, trx);
+        const patch: Record<string, unknown> = {};
+        const changes: Record<string, { from: unknown; to: unknown }> = {};
+        const set = (field: string, column: keyof CommissionRow, to: unknown) => {
+          if (to === undefined || row[column] === to) return;
+          patch[column] = to;
+          changes[field] = field === 'brief' ? { from: null, to: null } : { from: row[column], to };
+        };
+        set('title', 'title', input.title);
+        set('brief', 'brief', input.brief);
+        set('dueDate', 'due_date', input.dueDate);
+        set('priority', 'priority', input.priority);
+        if (!Object.keys(patch).length) return;
+        await repo.update(trx, actor.studioId, id, { ...patch, updated_at: now() });
+        await activity.record(trx, { studioId: actor.studioId, commissionId: id, userId: actor.userId, action: 'commission.updated', detail: { changes } });
+      });
+      return detail(actor, id);
+    },
+
+    async setSchemeNotes(actor: Actor, id: number, input: SchemeNotesInput) {
+      await db.transaction(async (trx) => {
+        const row = await visible(actor, id, trx);
+        const notes = input.schemeNotes || null;
+        if (row.scheme_notes === notes) return;
+        await repo.update(trx, actor.studioId, id, { scheme_notes: notes, updated_at: now() });
+        await activity.record(trx, { studioId: actor.studioId, commissionId: id, userId: actor.userId, action: 'commission.scheme_notes' });
+      });
+      return detail(actor, id);
+    },
+
+    /** Moves a commission along its lifecycle; 409 invalid_transition (with `allowed`) when the move is not one of them. */
+    async transition(actor: Actor, id: number, input: TransitionInput) {
+      await db.transaction(async (trx) => {
+        await visible(actor, id, trx);
+        await transitionIn(trx, actor, id, input.to, input.reason);
+      });
+      return detail(actor, id);
+    },
+
+    /** The same move inside another feature's transaction (e.g. an approved "finished" → ready to ship). */
+    transitionIn,
+
+    async activity(actor: Actor, id: number) {
+      await visible(actor, id);
+      return activity.list(actor.studioId, id);
+    },
+  };
+}
+
+export type CommissionsService = ReturnType<typeof commissionsService>;
