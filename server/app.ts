@@ -32,6 +32,23 @@ import { metaRoutes } from './features/meta/meta.routes';
 import { studiosRepository } from './features/studios/studios.repository';
 import { studiosRoutes } from './features/studios/studios.routes';
 import { studiosService } from './features/studios/studios.service';
+import { activityRepository } from './features/activity/activity.repository';
+import { activityService } from './features/activity/activity.service';
+import { boardRepository } from './features/board/board.repository';
+import { boardRoutes } from './features/board/board.routes';
+import { boardService } from './features/board/board.service';
+import { commissionsRepository } from './features/commissions/commissions.repository';
+import { commissionsRoutes } from './features/commissions/commissions.routes';
+import { commissionsService } from './features/commissions/commissions.service';
+import { figuresRepository } from './features/figures/figures.repository';
+import { figuresRoutes } from './features/figures/figures.routes';
+import { figuresService } from './features/figures/figures.service';
+import { studioSetupRepository } from './features/studio-setup/studio-setup.repository';
+import { studioSetupRoutes } from './features/studio-setup/studio-setup.routes';
+import { studioSetupService } from './features/studio-setup/studio-setup.service';
+import { timeRepository } from './features/time/time.repository';
+import { timeRoutes } from './features/time/time.routes';
+import { timeService } from './features/time/time.service';
 import { loginInput } from '../shared/schemas/auth';
 import { seedDemo } from '../seeds/demo';
 
@@ -61,6 +78,14 @@ export async function createApp(config: Config) {
   const studios = studiosService({ db, repo: studiosRepo, clock: config.clock });
   const auth = authService({ db, repo: authRepo, studios, mailer, clock: config.clock, bcryptRounds: config.bcryptRounds, publicUrl: config.publicUrl });
   const clients = clientsService({ db, repo: clientsRepo, clock: config.clock });
+  // Commissions on the bench: studio defaults (seeded for every new studio), activity log, figures/stages, time, board.
+  const setup = studioSetupService({ db, repo: studioSetupRepository(db) });
+  studios.onStudioCreated((studioId, trx) => setup.seedDefaults(studioId, trx));
+  const activity = activityService({ repo: activityRepository(db), clock: config.clock });
+  const figures = figuresService({ db, repo: figuresRepository(db), setup, activity, clock: config.clock });
+  const commissions = commissionsService({ db, repo: commissionsRepository(db), figures, activity, clock: config.clock });
+  const time = timeService({ db, repo: timeRepository(db), figures, activity, clock: config.clock });
+  const board = boardService({ repo: boardRepository(db), figures, setup, clock: config.clock });
   const invitations = invitationsService({
     db,
     repo: invitationsRepository(db),
@@ -153,6 +178,11 @@ export async function createApp(config: Config) {
   authRoutes(r, { auth, invitations, passport: passport as never });
   studiosRoutes(r, { allow, studios, invitations });
   clientsRoutes(r, { allow, clients, invitations });
+  commissionsRoutes(r, { allow, commissions });
+  figuresRoutes(r, { allow, figures });
+  timeRoutes(r, { allow, time });
+  boardRoutes(r, { allow, board });
+  studioSetupRoutes(r, { allow, setup });
 
   app.use('/api', express.json({ limit: '1mb' }), sessionMiddleware, passport.initialize(), passport.session(), csrf, apiRouter);
   app.use('/api', (_req, _res, next) => next(errors.notFound('That API route')));
