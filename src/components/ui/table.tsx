@@ -26,9 +26,9 @@ export function Tr({ className, ...rest }: ComponentProps<'tr'>) {
 }
 
 export function Th({ className, scope = 'col', ...rest }: ComponentProps<'th'>) {
-  return <th scope={scope} className={cn('px-4 py-2 font-semibold', className)} {...rest} />;
+  return <th scope={scope} className={cn('px-3 py-2 font-semibold sm:px-4', className)} {...rest} />;
 }
 
 export function Td({ className, ...rest }: ComponentProps<'td'>) {
-  return <td className={cn('px-4 py-3', className)} {...rest} />;
+  return <td className={cn('px-3 py-3 sm:px-4', className)} {...rest} />;
 }
