@@ -90,7 +90,7 @@ export function commissionsRepository(db: Db) {
         filter(base(db, studioId))
           .leftJoin(stageTotals, 'st.commission_id', 'c.id')
           .leftJoin(figureTotals, 'ft.commission_id', 'c.id')
-          .select(columns, 'ft.figure_count', 'ft.model_count', 'st.stages', 'st.skipped', 'st.done', 'st.minutes_total', 'st.minutes_done')
+          .select([...columns, 'ft.figure_count', 'ft.model_count', 'st.stages', 'st.skipped', 'st.done', 'st.minutes_total', 'st.minutes_done'])
           .orderBy([{ column: 'c.created_at', order: 'desc' }, { column: 'c.id', order: 'desc' }])
           .limit(q.limit)
           .offset(q.offset),
