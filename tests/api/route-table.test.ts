@@ -36,6 +36,34 @@ const table: Row[] = [
   ['GET', '/api/studios/:studioId/clients/:clientId', 401, 200, 200, 403, 404],
   ['PATCH', '/api/studios/:studioId/clients/:clientId', 401, 200, 403, 403, 404],
   ['POST', '/api/studios/:studioId/clients/:clientId/invite', 401, 409, 403, 403, 404],
+  // Commissions, figures, stages, time, board, studio settings (issue 3, server part E). The client of studio A owns the commission.
+  ['GET', '/api/studios/:studioId/commissions', 401, 200, 200, 200, 404],
+  ['POST', '/api/studios/:studioId/commissions', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId', 401, 200, 200, 200, 404],
+  ['PATCH', '/api/studios/:studioId/commissions/:commissionId', 401, 200, 403, 403, 404],
+  ['PATCH', '/api/studios/:studioId/commissions/:commissionId/scheme-notes', 401, 400, 403, 400, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/transitions', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/activity', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/figures', 401, 400, 403, 403, 404],
+  ['PATCH', '/api/studios/:studioId/figures/:figureId', 401, 200, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/figures/:figureId/advance', 401, 200, 200, 403, 404],
+  ['PATCH', '/api/studios/:studioId/stages/:stageId', 401, 200, 200, 403, 404],
+  ['GET', '/api/studios/:studioId/stages/:stageId/time', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/stages/:stageId/time', 401, 400, 400, 403, 404],
+  ['POST', '/api/studios/:studioId/stages/:stageId/timer', 401, 201, 201, 403, 404],
+  ['GET', '/api/studios/:studioId/timer', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/timer/stop', 401, 200, 200, 403, 404],
+  ['PATCH', '/api/studios/:studioId/time/:entryId', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/board', 401, 200, 200, 403, 404],
+  ['GET', '/api/studios/:studioId/stage-template', 401, 200, 200, 403, 404],
+  ['PUT', '/api/studios/:studioId/stage-template', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/lists', 401, 200, 200, 200, 404],
+  ['PUT', '/api/studios/:studioId/lists', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/hazards', 401, 200, 200, 200, 404],
+  ['PUT', '/api/studios/:studioId/hazards', 401, 400, 403, 403, 404],
+  // Deletions run last among these rows: the owner's call removes the record, so the painter after it meets 404.
+  ['DELETE', '/api/studios/:studioId/time/:entryId', 401, 204, 404, 403, 404],
+  ['DELETE', '/api/studios/:studioId/figures/:figureId', 401, 204, 403, 403, 404],
 ];
 
 let sw: TestApp;
@@ -47,6 +75,15 @@ beforeAll(async () => {
   sw = await startTestApp();
   const { a } = await twoStudios(sw);
   ids = { studioId: String(a.studioId), clientId: String(a.clientId), userId: '999999', invitationId: '999999', token: FAKE_TOKEN };
+  // A commission of studio A's client with one figure, and a time entry logged by the owner on its first stage.
+  const commission = await a.owner.post(`/api/studios/${a.studioId}/commissions`, {
+    clientId: a.clientId,
+    title: 'Route table',
+    figures: [{ name: 'Table figure', quantity: 1, sizeClass: '28', tier: 'tabletop' }],
+  });
+  const figure = commission.body.figures[0];
+  const entry = await a.owner.post(`/api/studios/${a.studioId}/stages/${figure.stages[0].id}/time`, { hours: 1 });
+  Object.assign(ids, { commissionId: String(commission.body.id), figureId: String(figure.id), stageId: String(figure.stages[0].id), entryId: String(entry.body.id) });
 });
 afterAll(() => sw.stop());
 
