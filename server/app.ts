@@ -32,6 +32,20 @@ import { metaRoutes } from './features/meta/meta.routes';
 import { studiosRepository } from './features/studios/studios.repository';
 import { studiosRoutes } from './features/studios/studios.routes';
 import { studiosService } from './features/studios/studios.service';
+import { approvalsRepository } from './features/approvals/approvals.repository';
+import { approvalsRoutes } from './features/approvals/approvals.routes';
+import { approvalsService } from './features/approvals/approvals.service';
+import { commentsRepository } from './features/comments/comments.repository';
+import { commentsRoutes } from './features/comments/comments.routes';
+import { commentsService } from './features/comments/comments.service';
+import { noticesRepository } from './features/notices/notices.repository';
+import { noticesService } from './features/notices/notices.service';
+import { photosRepository } from './features/photos/photos.repository';
+import { photosRoutes } from './features/photos/photos.routes';
+import { photosService } from './features/photos/photos.service';
+import { tuneSharpForUploads } from './lib/images/photos';
+import { localDiskStorage } from './lib/storage/local-disk';
+import { createLimiter } from './lib/upload';
 import { activityRepository } from './features/activity/activity.repository';
 import { activityService } from './features/activity/activity.service';
 import { boardRepository } from './features/board/board.repository';
@@ -96,6 +110,22 @@ export async function createApp(config: Config) {
     mailer,
     clock: config.clock,
     publicUrl: config.publicUrl,
+  });
+
+  // Photos, the comment thread and approvals, with e-mail notices both ways. Files live under DATA_DIR/photos
+  // and are served only through the photo route; at most two photos are decoded at once.
+  tuneSharpForUploads();
+  const storage = localDiskStorage(path.join(config.dataDir, 'photos'));
+  const notices = noticesService({ repo: noticesRepository(db), mailer, publicUrl: config.publicUrl });
+  const photos = photosService({ db, repo: photosRepository(db), storage, limiter: createLimiter(2), notices, clock: config.clock });
+  const comments = commentsService({ db, repo: commentsRepository(db), notices, clock: config.clock });
+  const approvals = approvalsService({
+    db,
+    repo: approvalsRepository(db),
+    notices,
+    clock: config.clock,
+    // An approved "finished" moves the commission on through the lifecycle's own rules and log.
+    finishCommission: (actor, commissionId) => commissions.transition(actor, commissionId, { to: 'ready_to_ship', reason: undefined }),
   });
 
   if (config.demo && !(await db('studios').first('id'))) {
@@ -183,6 +213,9 @@ export async function createApp(config: Config) {
   timeRoutes(r, { allow, time });
   boardRoutes(r, { allow, board });
   studioSetupRoutes(r, { allow, setup });
+  photosRoutes(r, { allow, photos });
+  commentsRoutes(r, { allow, comments });
+  approvalsRoutes(r, { allow, approvals });
 
   app.use('/api', express.json({ limit: '1mb' }), sessionMiddleware, passport.initialize(), passport.session(), csrf, apiRouter);
   app.use('/api', (_req, _res, next) => next(errors.notFound('That API route')));
