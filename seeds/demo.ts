@@ -2,6 +2,7 @@ import { DEMO_PASSWORD } from '../server/config';
 import { iso, type Clock } from '../server/lib/clock';
 import type { Db } from '../server/lib/db';
 import type { StudiosService } from '../server/features/studios/studios.service';
+import { commissionsDemo } from './demo-commissions';
 
 /**
  * The demo scenario: an invented studio, its people and clients. Every name here is made up
@@ -16,6 +17,7 @@ export type DemoContext = {
 };
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
 export const demoSteps: DemoStep[] = [];
+demoSteps.push(commissionsDemo);
 
 export async function seedDemo(db: Db, deps: { clock: Clock; hash: (p: string) => Promise<string>; studios: StudiosService }) {
   const now = iso(deps.clock.now());
