@@ -19,6 +19,8 @@ import { listRoutes, routeTable } from './lib/routes';
 import { createSessionStore } from './lib/session-store';
 import { safeEqual } from './lib/tokens';
 import { startMailCapture } from './fakes/mail-capture';
+import { startPaymentsFake } from './fakes/payments-fake';
+import { createPayments } from './lib/payments/index';
 import { authRepository, toUser } from './features/auth/auth.repository';
 import { authRoutes } from './features/auth/auth.routes';
 import { authService } from './features/auth/auth.service';
@@ -83,6 +85,14 @@ export async function createApp(config: Config) {
     smtp: config.smtpUrl ?? { host: '127.0.0.1', port: capture!.port },
     from: config.mailFrom,
     log,
+  });
+
+  const paymentsFake = config.stripeSecretKey ? null : await startPaymentsFake({ port: config.paymentsFakePort, clock: config.clock, log });
+  const payments = createPayments({
+    secretKey: config.stripeSecretKey ?? paymentsFake!.secretKey,
+    webhookSecret: config.stripeWebhookSecret ?? paymentsFake!.webhookSecret,
+    fake: paymentsFake ? { host: paymentsFake.host, port: paymentsFake.port } : undefined,
+    clock: config.clock,
   });
 
   // Repositories and services, wired by hand: one place shows what depends on what.
@@ -217,6 +227,8 @@ export async function createApp(config: Config) {
   commentsRoutes(r, { allow, comments });
   approvalsRoutes(r, { allow, approvals });
 
+  // The payment webhook needs the exact bytes for its signature check, so it is parsed raw, before JSON.
+  app.use('/api/webhooks/payments', express.raw({ type: () => true, limit: '1mb' }));
   app.use('/api', express.json({ limit: '1mb' }), sessionMiddleware, passport.initialize(), passport.session(), csrf, apiRouter);
   app.use('/api', (_req, _res, next) => next(errors.notFound('That API route')));
   if (capture) app.use('/dev/mail', devMailRouter(db));
@@ -263,12 +275,15 @@ export async function createApp(config: Config) {
     mailer,
     jobs,
     mailCapturePort: capture?.port ?? null,
+    payments,
+    paymentsFake,
     routes: () => listRoutes(apiRouter),
     async close() {
       timers.forEach(clearInterval);
       if (store.nextDbCleanup) clearTimeout(store.nextDbCleanup);
       mailer.close();
       await capture?.close();
+      await paymentsFake?.close();
       await db.destroy();
     },
   };

@@ -21,6 +21,9 @@ const envSchema = z.object({
   MAIL_CAPTURE_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   DEMO: z.enum(['true', 'false', '1', '0', '']).optional(),
   BCRYPT_ROUNDS: z.coerce.number().int().min(4).max(15).default(12),
+  STRIPE_SECRET_KEY: z.string().optional(),
+  STRIPE_WEBHOOK_SECRET: z.string().optional(),
+  PAYMENTS_FAKE_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
 });
 
@@ -39,6 +42,10 @@ export type Config = {
   mailCapturePort: number;
   /** Load the demo scenario into an empty database and show demo hints. */
   demo: boolean;
+  /** The payment service's secret key; unset, a local fake of the service starts with its own checkout page. */
+  stripeSecretKey?: string;
+  stripeWebhookSecret?: string;
+  paymentsFakePort: number;
   bcryptRounds: number;
   logLevel: string;
   clock: Clock;
@@ -57,6 +64,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     throw new Error(`Sablework cannot start: the environment is not valid.\n${lines}`);
   }
   const e = parsed.data;
+  if (e.STRIPE_SECRET_KEY && !e.STRIPE_WEBHOOK_SECRET) {
+    throw new Error('Sablework cannot start: STRIPE_SECRET_KEY is set but STRIPE_WEBHOOK_SECRET is not. Set both, or neither to use the local payment fake.');
+  }
   const port = e.PORT;
   return {
     port,
@@ -70,6 +80,9 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     mailFrom: e.MAIL_FROM,
     mailCapturePort: e.MAIL_CAPTURE_PORT,
     demo: e.DEMO === undefined || e.DEMO === '' ? !e.SMTP_URL : e.DEMO === 'true' || e.DEMO === '1',
+    stripeSecretKey: e.STRIPE_SECRET_KEY || undefined,
+    stripeWebhookSecret: e.STRIPE_WEBHOOK_SECRET || undefined,
+    paymentsFakePort: e.PAYMENTS_FAKE_PORT,
     bcryptRounds: e.BCRYPT_ROUNDS,
     logLevel: e.LOG_LEVEL,
     clock: systemClock,
