@@ -1,5 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { Caller, PASSWORD, startTestApp, twoStudios, type TestApp } from '../support/app';
+import { images, upload } from '../support/fixtures';
 
 /**
  * Who may call what, written out by hand (never derived from the allow() calls it checks).
@@ -61,9 +62,22 @@ const table: Row[] = [
   ['PUT', '/api/studios/:studioId/lists', 401, 400, 403, 403, 404],
   ['GET', '/api/studios/:studioId/hazards', 401, 200, 200, 200, 404],
   ['PUT', '/api/studios/:studioId/hazards', 401, 400, 403, 403, 404],
+  // Photos, comments, approvals (issue 3, server part F). The photo is shared with the client; the approval waits for them.
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/photos', 401, 200, 200, 200, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/photos', 401, 400, 400, 400, 404],
+  ['GET', '/api/studios/:studioId/photos/:photoId/:size', 401, 200, 200, 200, 404],
+  ['PATCH', '/api/studios/:studioId/photos/:photoId', 401, 200, 200, 403, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/comments', 401, 200, 200, 200, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/comments', 401, 400, 400, 400, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/approvals', 401, 200, 200, 200, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/approvals', 401, 400, 400, 403, 404],
+  ['POST', '/api/studios/:studioId/approvals/:approvalId/request-changes', 401, 403, 403, 400, 404],
+  // The client's approval decides the request; no row after this one uses it.
+  ['POST', '/api/studios/:studioId/approvals/:approvalId/approve', 401, 403, 403, 200, 404],
   // Deletions run last among these rows: the owner's call removes the record, so the painter after it meets 404.
   ['DELETE', '/api/studios/:studioId/time/:entryId', 401, 204, 404, 403, 404],
   ['DELETE', '/api/studios/:studioId/figures/:figureId', 401, 204, 403, 403, 404],
+  ['DELETE', '/api/studios/:studioId/photos/:photoId', 401, 204, 404, 403, 404],
 ];
 
 let sw: TestApp;
@@ -84,6 +98,10 @@ beforeAll(async () => {
   const figure = commission.body.figures[0];
   const entry = await a.owner.post(`/api/studios/${a.studioId}/stages/${figure.stages[0].id}/time`, { hours: 1 });
   Object.assign(ids, { commissionId: String(commission.body.id), figureId: String(figure.id), stageId: String(figure.stages[0].id), entryId: String(entry.body.id) });
+  // A photo on that commission shared with the client, and a scheme approval waiting for the client.
+  const photos = await upload(a.owner, `/api/studios/${a.studioId}/commissions/${ids.commissionId}/photos`, [{ data: await images.twoTone(64, 48), name: 'table.jpg' }], { kind: 'progress', shared: 'true' });
+  const approval = await a.owner.post(`/api/studios/${a.studioId}/commissions/${ids.commissionId}/approvals`, { subject: 'scheme' });
+  Object.assign(ids, { photoId: String(photos.body[0].id), size: 'thumb', approvalId: String(approval.body.id) });
 });
 afterAll(() => sw.stop());
 

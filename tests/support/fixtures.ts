@@ -49,6 +49,17 @@ export async function secondClient(sw: TestApp, owner: Caller, studioId: number,
   return { caller, clientId: cr.body.id as number };
 }
 
+/** Another painter of the studio, through a real invitation. */
+export async function secondPainter(sw: TestApp, owner: Caller, studioId: number, email: string) {
+  const inv = await owner.post(`/api/studios/${studioId}/invitations`, { email, role: 'painter' });
+  if (inv.status !== 201) throw new Error(JSON.stringify(inv.body));
+  const [m] = await mailTo(sw, email);
+  const caller = new Caller(sw.app);
+  const res = await caller.post(`/api/invitations/${linkIn(m.text, '/invite/')}/accept`, { name: 'Second Painter', password: PASSWORD });
+  if (res.status !== 200) throw new Error(JSON.stringify(res.body));
+  return caller;
+}
+
 export type UploadFile = { data: Buffer; name: string; type?: string };
 
 /** A multipart upload the way the browser sends it: field `photos`, text fields beside it, CSRF header. */

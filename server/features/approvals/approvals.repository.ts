@@ -63,9 +63,6 @@ export function approvalsRepository(db: Db) {
     /** Decides only a request still open; returns how many rows changed (0: someone decided first). */
     decide: (studioId: number, id: number, d: { status: ApprovalStatus; decided_by: number; decided_at: string; comment: string | null }, trx: Db) =>
       trx('approvals').where({ studio_id: studioId, id, status: 'requested' }).update(d),
-    /** Only used while no commission lifecycle service is wired in (see approvals.service). */
-    setCommissionStatus: (studioId: number, commissionId: number, status: string, at: string, trx: Db) =>
-      trx('commissions').where({ studio_id: studioId, id: commissionId }).update({ status, status_before_hold: null, updated_at: at }),
     logActivity: (trx: Db, a: { studioId: number; commissionId: number; userId: number; action: string; detail: object; at: string }) =>
       trx('activity').insert({ studio_id: a.studioId, commission_id: a.commissionId, user_id: a.userId, action: a.action, detail: JSON.stringify(a.detail), at: a.at }),
   };

@@ -2,7 +2,7 @@ import { canTransition, lockedStatuses, type CommissionStatus } from '../../../s
 import { approvalSubjectLabels, type ApproveInput, type RequestApprovalInput, type RequestChangesInput } from '../../../shared/schemas/approvals';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
-import { errors } from '../../lib/errors';
+import { AppError, errors } from '../../lib/errors';
 import type { Member } from '../../lib/policy';
 import { quote, type NoticesService } from '../notices/notices.service';
 import type { ApprovalsRepository } from './approvals.repository';
@@ -16,7 +16,7 @@ export type FinishCommission = (actor: Member & { userId: number }, commissionId
  * client approves or asks for changes with a comment; each decision is kept with its time and person.
  * An approved "finished" moves the commission on to ready to ship.
  */
-export function approvalsService(deps: { db: Db; repo: ApprovalsRepository; notices: NoticesService; clock: Clock; finishCommission?: FinishCommission }) {
+export function approvalsService(deps: { db: Db; repo: ApprovalsRepository; notices: NoticesService; clock: Clock; finishCommission: FinishCommission }) {
   const { db, repo, notices, clock } = deps;
   const now = () => iso(clock.now());
 
@@ -59,16 +59,16 @@ export function approvalsService(deps: { db: Db; repo: ApprovalsRepository; noti
       });
       const current = c.status as CommissionStatus;
       finish = status === 'approved' && a.subject === 'finished' && canTransition(current, 'ready_to_ship', c.status_before_hold as CommissionStatus | null);
-      if (finish && !deps.finishCommission) {
-        // No lifecycle service wired in: the same move and log entry the commissions feature makes.
-        await repo.setCommissionStatus(m.studioId, c.id, 'ready_to_ship', at, trx);
-        await repo.logActivity(trx, { studioId: m.studioId, commissionId: c.id, userId: user.id, action: 'commission.status', detail: { from: current, to: 'ready_to_ship' }, at });
-      }
       return c.id;
     });
     notices.kick();
-    // The lifecycle service runs its own transaction (one SQLite connection: it cannot nest in ours).
-    if (finish && deps.finishCommission) await deps.finishCommission({ ...m, userId: user.id }, commissionId);
+    // The lifecycle service runs its own transaction (one SQLite connection: it cannot nest in ours), so the
+    // move follows the recorded approval; should it be refused, the approval stands and the owner moves it by hand.
+    if (finish) {
+      await deps.finishCommission({ ...m, userId: user.id }, commissionId).catch((err) => {
+        if (!(err instanceof AppError && err.status === 409)) throw err; // moved meanwhile: nothing to do
+      });
+    }
     return (await repo.get(m.studioId, approvalId))!;
   }
 
