@@ -56,7 +56,7 @@ export async function commissionsDemo(ctx: DemoContext) {
   const move = async (id: number, ...to: CommissionStatus[]) => {
     for (const s of to) {
       pass(20);
-      await commissions.transition(owner, id, { to: s, ...(s === 'cancelled' ? { reason: 'The client found the models miscast and will order them again.' } : {}) });
+      await commissions.transition(owner, id, { to: s, reason: s === 'cancelled' ? 'The client found the models miscast and will order them again.' : undefined });
     }
   };
   /**

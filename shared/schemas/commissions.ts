@@ -64,8 +64,8 @@ const dateOnly = z.iso.date({ error: 'Use a date such as 2026-05-31.' });
 const clearableText = (max: number) =>
   z
     .union([z.null(), z.string().trim().max(max, `Use at most ${max} characters.`)])
-    .optional()
-    .transform((v) => (v === '' ? null : v));
+    .transform((v) => (v === '' ? null : v))
+    .optional();
 
 const hours = (min: number, max: number, what = 'hours') =>
   z
@@ -116,8 +116,8 @@ export const createCommissionInput = z.object({
   brief: optionalText(10000),
   dueDate: z
     .union([z.literal(''), dateOnly])
-    .optional()
-    .transform((v) => (v === '' ? undefined : v)),
+    .transform((v) => (v === '' ? undefined : v))
+    .optional(),
   priority: priority.optional(),
   figures: z.array(figureInput).max(100, 'At most 100 figures at once.').optional(),
 });
@@ -128,8 +128,8 @@ export const updateCommissionInput = z.object({
   brief: clearableText(10000),
   dueDate: z
     .union([z.literal(''), z.null(), dateOnly])
-    .optional()
-    .transform((v) => (v === '' ? null : v)),
+    .transform((v) => (v === '' ? null : v))
+    .optional(),
   priority: priority.optional(),
 });
 export type UpdateCommissionInput = z.infer<typeof updateCommissionInput>;
