@@ -2,43 +2,16 @@
 // Money fields are integers in the table currency's minor units (ISO 4217 digits, shared/money.ts);
 // percentages are basis points (bp: 1 bp = 0.01 %, 10 000 bp = 100 %) so they stay integers too.
 import { z } from 'zod';
+import { defaultStageTemplate } from '../hazards';
 import { isCurrencyCode, minorUnits, mulDiv } from '../money';
+import { defaultExtras, defaultTiers, sizeClasses, sizeClassLabels, type SizeClass } from './commissions';
 
-export const sizeClasses = ['25mm', '28mm', '32mm', '40mm', '50mm', '60mm', '80mm', '100mm', '120mm', '160mm', 'large'] as const;
-export type SizeClass = (typeof sizeClasses)[number];
-export const sizeClassLabels: Record<SizeClass, string> = {
-  '25mm': '25 mm base',
-  '28mm': '28 mm base',
-  '32mm': '32 mm base',
-  '40mm': '40 mm base',
-  '50mm': '50 mm base',
-  '60mm': '60 mm base',
-  '80mm': '80 mm base',
-  '100mm': '100 mm base',
-  '120mm': '120 mm base',
-  '160mm': '160 mm base',
-  large: 'Vehicle or monster',
-};
+// Size classes, tiers and stages come from one place each: the figures API's size classes and default
+// tiers (./commissions) and the default stage template (../hazards), so a figure's keys are the table's keys.
+export { sizeClasses, sizeClassLabels, defaultTiers, type SizeClass };
 
-export const defaultStages = [
-  { key: 'prep', label: 'Prep & clean' },
-  { key: 'assembly', label: 'Assembly' },
-  { key: 'prime', label: 'Prime' },
-  { key: 'basecoat', label: 'Basecoat' },
-  { key: 'shade', label: 'Shade' },
-  { key: 'layer', label: 'Layer & highlight' },
-  { key: 'glaze', label: 'Glaze' },
-  { key: 'details', label: 'Details' },
-  { key: 'basing', label: 'Basing' },
-  { key: 'weathering', label: 'Weathering' },
-  { key: 'varnish', label: 'Varnish' },
-] as const;
-
-export const defaultTiers = [
-  { key: 'tabletop', label: 'Tabletop' },
-  { key: 'enhanced', label: 'Enhanced' },
-  { key: 'display', label: 'Display' },
-] as const;
+/** The default stages as {key, label}: the default stage template's keys and names. */
+export const defaultStages: { key: string; label: string }[] = defaultStageTemplate.map((s) => ({ key: s.key, label: s.name }));
 
 export const extraLineKinds = ['shipping', 'insurance', 'models', 'custom'] as const;
 export type ExtraLineKind = (typeof extraLineKinds)[number];
@@ -294,15 +267,16 @@ export type ParsedQuoteEngineInput = z.infer<typeof quoteEngineInput>;
 
 // Invented defaults, not a survey of prices: hours per stage for one 28 mm figure in each tier, scaled
 // by an invented factor per size class and rounded to 0.05 h. A new studio edits them before quoting.
-const baseMinutes28: Record<(typeof defaultTiers)[number]['key'], Record<(typeof defaultStages)[number]['key'], number>> = {
+// Keyed by the default tiers' and stages' keys; a key missing here would price that cell at 0 h.
+const baseMinutes28: Record<string, Record<string, number>> = {
   tabletop: { prep: 15, assembly: 15, prime: 6, basecoat: 30, shade: 9, layer: 30, glaze: 0, details: 15, basing: 15, weathering: 0, varnish: 6 },
   enhanced: { prep: 21, assembly: 21, prime: 6, basecoat: 45, shade: 15, layer: 75, glaze: 30, details: 45, basing: 30, weathering: 15, varnish: 6 },
   display: { prep: 45, assembly: 45, prime: 9, basecoat: 90, shade: 30, layer: 240, glaze: 120, details: 180, basing: 90, weathering: 60, varnish: 9 },
 };
 // percent of the 28 mm hours (invented)
 const sizeFactorPct: Record<SizeClass, number> = {
-  '25mm': 90, '28mm': 100, '32mm': 115, '40mm': 160, '50mm': 220, '60mm': 300,
-  '80mm': 450, '100mm': 600, '120mm': 800, '160mm': 1100, large: 1400,
+  '25': 90, '28': 100, '32': 115, '40': 160, '50': 220, '60': 300,
+  '80': 450, '100': 600, '120': 800, '160': 1100, large: 1400,
 };
 
 // Invented hourly rates in whole major units, only to make a new table look plausible in a few
@@ -310,6 +284,19 @@ const sizeFactorPct: Record<SizeClass, number> = {
 const inventedHourlyMajor: Record<string, number> = {
   USD: 30, EUR: 28, GBP: 25, CAD: 40, AUD: 45, NZD: 48, CHF: 30, SEK: 320, NOK: 330, DKK: 210,
   PLN: 120, CZK: 700, HUF: 11000, JPY: 4200, KRW: 40000, KWD: 9, BHD: 11, JOD: 21,
+};
+
+// How the price table prices each of a new studio's default extras (./commissions defaultExtras, the keys
+// figures carry), invented: hours added to one figure in a stage, or a flat price as a percentage of the hourly rate.
+const defaultExtraPricing: Record<string, { kind: 'hours'; hours: number; stage: string } | { kind: 'flat'; pctOfRate: number }> = {
+  assembly: { kind: 'hours', hours: 0.25, stage: 'assembly' },
+  conversion: { kind: 'hours', hours: 1.5, stage: 'assembly' },
+  magnetising: { kind: 'hours', hours: 0.5, stage: 'assembly' },
+  freehand: { kind: 'hours', hours: 1.5, stage: 'details' },
+  nmm: { kind: 'hours', hours: 1, stage: 'layer' },
+  'light-effects': { kind: 'hours', hours: 1, stage: 'glaze' },
+  weathering: { kind: 'hours', hours: 0.5, stage: 'weathering' },
+  'display-base': { kind: 'flat', pctOfRate: 100 },
 };
 
 /** A complete, valid table for a new studio: the 11 default stages, 3 tiers, invented hours and prices. */
@@ -326,7 +313,7 @@ export function defaultPriceTable(currencyCode: string): PriceTable {
     for (const tr of defaultTiers) {
       const cell: Record<string, number> = {};
       for (const st of defaultStages) {
-        const minutes = mulDiv(baseMinutes28[tr.key][st.key], sizeFactorPct[size], 300) * 3; // to 3 min = 0.05 h
+        const minutes = mulDiv(baseMinutes28[tr.key]?.[st.key] ?? 0, sizeFactorPct[size], 300) * 3; // to 3 min = 0.05 h
         cell[st.key] = minutes / 60;
       }
       stageHours[size][tr.key] = cell;
@@ -339,14 +326,10 @@ export function defaultPriceTable(currencyCode: string): PriceTable {
     stages: defaultStages.map((s) => ({ ...s })),
     tiers: defaultTiers.map((t) => ({ ...t })),
     stageHours,
-    extras: [
-      { key: 'conversion', label: 'Conversion', kind: 'hours', hours: 1.5, stage: 'assembly' },
-      { key: 'magnetising', label: 'Magnetising', kind: 'hours', hours: 0.5, stage: 'assembly' },
-      { key: 'freehand', label: 'Freehand design', kind: 'hours', hours: 1.5, stage: 'details' },
-      { key: 'nmm', label: 'Non-metallic metal', kind: 'hours', hours: 1, stage: 'layer' },
-      { key: 'light-effects', label: 'Light effects', kind: 'hours', hours: 1, stage: 'glaze' },
-      { key: 'display-base', label: 'Display base', kind: 'flat', amount: ofRate(100) },
-    ],
+    extras: defaultExtras.map((e) => {
+      const p = defaultExtraPricing[e.key];
+      return p.kind === 'flat' ? { key: e.key, label: e.label, kind: 'flat', amount: ofRate(p.pctOfRate) } : { key: e.key, label: e.label, ...p };
+    }),
     presetLines: [
       { key: 'shipping', label: 'Tracked shipping', kind: 'shipping', amount: ofRate(50), taxable: true },
       { key: 'insurance', label: 'Shipping insurance', kind: 'insurance', amount: ofRate(20), taxable: true },

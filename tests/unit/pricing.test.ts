@@ -1,6 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { chargeAmount, chargeRule } from '../../shared/money';
+import { defaultStageTemplate } from '../../shared/hazards';
+import { defaultExtras, defaultTiers as studioDefaultTiers, sizeClasses as figureSizeClasses } from '../../shared/schemas/commissions';
 import {
   formatBasisPoints,
   formatHours,
@@ -115,10 +117,21 @@ describe('price table schema and defaults', () => {
   it('invented default hours grow with the size class and the tier', () => {
     const t = defaultPriceTable('USD');
     const total = (size: string, tier: string) => Object.values(t.stageHours[size][tier]).reduce((s, h) => s + h, 0);
-    expect(total('32mm', 'tabletop')).toBeGreaterThan(total('28mm', 'tabletop'));
-    expect(total('large', 'display')).toBeGreaterThan(total('160mm', 'display'));
-    expect(total('28mm', 'display')).toBeGreaterThan(total('28mm', 'enhanced'));
-    expect(total('28mm', 'enhanced')).toBeGreaterThan(total('28mm', 'tabletop'));
+    expect(total('32', 'tabletop')).toBeGreaterThan(total('28', 'tabletop'));
+    expect(total('large', 'display')).toBeGreaterThan(total('160', 'display'));
+    expect(total('28', 'display')).toBeGreaterThan(total('28', 'enhanced'));
+    expect(total('28', 'enhanced')).toBeGreaterThan(total('28', 'tabletop'));
+  });
+
+  it("uses a new studio's own keys: the figures' size classes, the default tiers, extras and stage template", () => {
+    const t = defaultPriceTable('EUR');
+    expect(Object.keys(t.stageHours)).toEqual([...figureSizeClasses]);
+    expect(t.tiers.map((x) => x.key)).toEqual(studioDefaultTiers.map((x) => x.key));
+    expect(t.extras.map((x) => x.key)).toEqual(defaultExtras.map((x) => x.key));
+    expect(t.stages.map((x) => x.key)).toEqual(defaultStageTemplate.map((x) => x.key));
+    // a figure as the figures API stores it prices without translation
+    const q = quoteFigures({ priceTable: t, figures: [{ name: 'Scout', quantity: 1, sizeClass: '28', tier: 'tabletop', extras: defaultExtras.map((x) => x.key) }], today: '2025-01-01' });
+    expect(q.lines).toHaveLength(1);
   });
 
   it('defaults in a currency without an invented rate start at 0 for the owner to set', () => {
@@ -138,11 +151,11 @@ describe('price table schema and defaults', () => {
 
   it('reports a missing grid cell by its path', () => {
     const t = defaultPriceTable('USD');
-    delete t.stageHours['40mm'].display.glaze;
-    expect(issues(t)).toEqual(['stageHours.40mm.display.glaze: Enter the Glaze hours for Display, 40 mm base.']);
+    delete t.stageHours['40'].display.glaze;
+    expect(issues(t)).toEqual(['stageHours.40.display.glaze: Enter the Glaze hours for Display, 40 mm.']);
     const u = defaultPriceTable('USD');
     delete u.stageHours.large;
-    expect(issues(u)).toEqual(['stageHours.large: Enter the hours for Vehicle or monster.']);
+    expect(issues(u)).toEqual(['stageHours.large: Enter the hours for Large or vehicle.']);
   });
 
   it('rejects duplicate keys, hour extras on unknown stages, stray grid keys and out-of-range values', () => {
@@ -152,11 +165,11 @@ describe('price table schema and defaults', () => {
 
     const e = defaultPriceTable('USD');
     e.extras.push({ key: 'gems', label: 'Gems', kind: 'hours', hours: 1, stage: 'sparkle' });
-    expect(issues(e)).toContain('extras.6.stage: There is no stage "sparkle".');
+    expect(issues(e)).toContain('extras.8.stage: There is no stage "sparkle".');
 
     const g = defaultPriceTable('USD');
-    g.stageHours['28mm'].tabletop.sparkle = 1;
-    expect(issues(g)).toContain('stageHours.28mm.tabletop.sparkle: There is no stage "sparkle".');
+    g.stageHours['28'].tabletop.sparkle = 1;
+    expect(issues(g)).toContain('stageHours.28.tabletop.sparkle: There is no stage "sparkle".');
 
     expect(issues({ ...defaultPriceTable('USD'), learningRate: 0.4 }).length).toBe(1);
     expect(issues({ ...defaultPriceTable('USD'), hourlyRate: 30.5 }).length).toBe(1);
@@ -174,7 +187,7 @@ function usdTable(): PriceTable {
   t.hourlyRate = 3000;
   t.learningRate = 0.8;
   t.materialsPerFigure = 150;
-  t.stageHours['28mm'].tabletop = cell({ basecoat: 1, layer: 0.5, basing: 0.5 }); // 60 + 30 + 30 = 120 min
+  t.stageHours['28'].tabletop = cell({ basecoat: 1, layer: 0.5, basing: 0.5 }); // 60 + 30 + 30 = 120 min
   t.extras = [
     { key: 'magnetising', label: 'Magnetising', kind: 'hours', hours: 0.25, stage: 'assembly' }, // 15 min
     { key: 'display-base', label: 'Display base', kind: 'flat', amount: 1200 },
@@ -191,8 +204,8 @@ function usdInput(dueDate: string | null): QuoteEngineInput {
   return {
     priceTable: usdTable(),
     figures: [
-      { id: 'f1', name: 'Line troopers', quantity: 4, sizeClass: '28mm', tier: 'tabletop', extras: ['magnetising'] },
-      { id: 'f2', name: 'Squad leader', quantity: 1, sizeClass: '28mm', tier: 'tabletop', extras: ['display-base'] },
+      { id: 'f1', name: 'Line troopers', quantity: 4, sizeClass: '28', tier: 'tabletop', extras: ['magnetising'] },
+      { id: 'f2', name: 'Squad leader', quantity: 1, sizeClass: '28', tier: 'tabletop', extras: ['display-base'] },
     ],
     extraLines: [
       { kind: 'shipping', label: 'Tracked shipping', unitAmount: 1500 },
@@ -254,7 +267,7 @@ describe('hand-worked quote: USD, tax added on top, discount, rush', () => {
 
   it('reads well for the client, without hours', () => {
     const c = q.clientBreakdown;
-    expect(c.lines[0]).toEqual({ label: 'Line troopers', detail: '28 mm base · Tabletop · Magnetising', quantity: 4, minutes: null, amount: 17900 });
+    expect(c.lines[0]).toEqual({ label: 'Line troopers', detail: '28 mm · Tabletop · Magnetising', quantity: 4, minutes: null, amount: 17900 });
     expect(c.adjustments).toEqual([
       { kind: 'discount', label: 'Order discount 5 %', effect: 'subtract', amount: 1263 },
       { kind: 'rush', label: 'Rush (due within 4 weeks) 25 %', effect: 'add', amount: 6313 },
@@ -297,8 +310,8 @@ describe('hand-worked quote: JPY, tax included, minimum order top-up, 30 % depos
   t.discounts = [];
   t.tax = { rateBp: 1000, label: 'Consumption tax', pricesIncludeTax: true, taxId: '' };
   t.depositBp = 3000;
-  t.stageHours['32mm'].enhanced = cell({ basecoat: 1.5, layer: 2 });
-  const q = quoteFigures({ priceTable: t, figures: [{ name: 'Knight', quantity: 2, sizeClass: '32mm', tier: 'enhanced' }], today: '2025-06-01' });
+  t.stageHours['32'].enhanced = cell({ basecoat: 1.5, layer: 2 });
+  const q = quoteFigures({ priceTable: t, figures: [{ name: 'Knight', quantity: 2, sizeClass: '32', tier: 'enhanced' }], today: '2025-06-01' });
 
   it('matches the hand calculation', () => {
     const a = figureLine(q, 0);
@@ -322,8 +335,8 @@ describe('hand-worked quote: KWD, deposit on the payment step of 10 fils', () =>
   t.materialsPerFigure = 125;
   t.minimumOrder = 0;
   t.discounts = [];
-  t.stageHours['50mm'].tabletop = cell({ basecoat: 0.5, details: 1 / 3 });
-  const q = quoteFigures({ priceTable: t, figures: [{ name: 'Ogre', quantity: 3, sizeClass: '50mm', tier: 'tabletop' }], today: '2025-01-10', dueDate: '2025-12-01' });
+  t.stageHours['50'].tabletop = cell({ basecoat: 0.5, details: 1 / 3 });
+  const q = quoteFigures({ priceTable: t, figures: [{ name: 'Ogre', quantity: 3, sizeClass: '50', tier: 'tabletop' }], today: '2025-01-10', dueDate: '2025-12-01' });
 
   it('matches the hand calculation', () => {
     const a = figureLine(q, 0);
@@ -351,8 +364,8 @@ describe('engine details', () => {
 
   it('a -0 in the hours comes out as 0 minutes, never -0', () => {
     const t = usdTable();
-    t.stageHours['28mm'].tabletop.prep = -0;
-    const l = figureLine(quoteFigures({ priceTable: t, figures: [{ name: 'X', quantity: 3, sizeClass: '28mm', tier: 'tabletop' }], today: '2025-03-03' }), 0);
+    t.stageHours['28'].tabletop.prep = -0;
+    const l = figureLine(quoteFigures({ priceTable: t, figures: [{ name: 'X', quantity: 3, sizeClass: '28', tier: 'tabletop' }], today: '2025-03-03' }), 0);
     expect(Object.is(l.unitStageMinutes.prep, 0)).toBe(true);
   });
 
@@ -396,10 +409,10 @@ describe('engine details', () => {
       }
       throw new Error(`expected a QuoteInputError at ${path}`);
     };
-    bad({ figures: [{ name: 'X', quantity: 1, sizeClass: '28mm', tier: 'heroic' }] }, 'figures.0.tier');
-    bad({ figures: [{ name: 'X', quantity: 1, sizeClass: '28mm', tier: 'tabletop', extras: ['gold-leaf'] }] }, 'figures.0.extras');
-    bad({ figures: [{ name: 'X', quantity: 0, sizeClass: '28mm', tier: 'tabletop' }] }, 'figures.0.quantity');
-    bad({ figures: [{ name: 'X', quantity: 1, sizeClass: '30mm' as '28mm', tier: 'tabletop' }] }, 'figures.0.sizeClass');
+    bad({ figures: [{ name: 'X', quantity: 1, sizeClass: '28', tier: 'heroic' }] }, 'figures.0.tier');
+    bad({ figures: [{ name: 'X', quantity: 1, sizeClass: '28', tier: 'tabletop', extras: ['gold-leaf'] }] }, 'figures.0.extras');
+    bad({ figures: [{ name: 'X', quantity: 0, sizeClass: '28', tier: 'tabletop' }] }, 'figures.0.quantity');
+    bad({ figures: [{ name: 'X', quantity: 1, sizeClass: '30' as '28', tier: 'tabletop' }] }, 'figures.0.sizeClass');
     bad({ extraLines: [{ kind: 'shipping', label: 'Post', unitAmount: -100 }] }, 'extraLines.0.unitAmount');
     bad({ dueDate: '2025-03-02' }, 'dueDate');
     bad({ today: '2025-02-30' }, 'today');
