@@ -116,6 +116,13 @@ describe('studio settings', () => {
       tiers: [{ key: 'tabletop', label: 'Tabletop' }, { key: 'enhanced', label: 'Enhanced' }, { key: 'display', label: 'Display' }],
       extras: [{ key: 'magnetising', label: 'Magnetising' }],
     });
+    // a tier or extra removed from the lists may stay on a figure that has it, but is not given anew
+    const kept = await s.a.owner.patch(`${A}/figures/${ok.body.id}`, { name: 'Banner II', tier: 'showcase', extras: ['freehand-banner', 'magnetising'] });
+    expect(kept.status).toBe(200);
+    expect(kept.body).toMatchObject({ name: 'Banner II', tier: 'showcase', extras: ['freehand-banner', 'magnetising'] });
+    const added = await s.a.owner.patch(`${A}/figures/${ok.body.id}`, { extras: ['freehand-banner', 'glitter'] });
+    expect(added.status).toBe(400);
+    expect(added.body.error.fields).toEqual({ 'extras.1': "“glitter” is not one of the studio's extras." });
   });
 
   it('the owner edits hazard texts; the closing sentence stays, once', async () => {

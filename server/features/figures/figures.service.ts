@@ -81,14 +81,14 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
   const now = () => iso(clock.now());
 
   /** Tier and extras from the studio's lists, the painter from its team; one field error per bad value. */
-  async function checkRefs(studioId: number, f: { tier?: string; extras?: string[]; painterId?: number | null }, trx: Db, prefix = '') {
+  async function checkRefs(studioId: number, f: { tier?: string; extras?: string[]; painterId?: number | null }, trx: Db, prefix = '', keepExtras: string[] = []) {
     const fields: Record<string, string> = {};
     if (f.tier !== undefined) {
       const tiers = await setup.tiers(studioId, trx);
       if (!tiers.some((t) => t.key === f.tier)) fields[`${prefix}tier`] = `Choose one of the studio's tiers: ${tiers.map((t) => t.label).join(', ')}.`;
     }
     if (f.extras?.length) {
-      const extras = new Set((await setup.extras(studioId, trx)).map((e) => e.key));
+      const extras = new Set([...(await setup.extras(studioId, trx)).map((e) => e.key), ...keepExtras]);
       f.extras.forEach((k, i) => {
         if (!extras.has(k)) fields[`${prefix}extras.${i}`] ??= `“${k}” is not one of the studio's extras.`;
       });
@@ -257,10 +257,18 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
         const footprint = sizeClass === 'large' ? (input.footprint !== undefined ? input.footprint : f.footprint) : null;
         if (sizeClass === 'large' && !footprint) throw errors.field('footprint', 'Give the footprint of a large figure, e.g. 180 × 110 mm.');
         const extras = input.extras ? [...new Set(input.extras)] : undefined;
+        // Only new values are checked: a tier or extra the studio has since removed may stay on the figure.
+        const current = parseKeys(f.extras);
         const { painterName } = await checkRefs(
           studioId,
-          { tier: input.tier !== undefined && input.tier !== f.tier ? input.tier : undefined, extras, painterId: input.painterId },
+          {
+            tier: input.tier !== undefined && input.tier !== f.tier ? input.tier : undefined,
+            extras,
+            painterId: input.painterId !== f.painter_id ? input.painterId : undefined,
+          },
           trx,
+          '',
+          current,
         );
 
         const patch: Record<string, unknown> = {};
@@ -275,7 +283,7 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
         set('sizeClass', 'size_class', f.size_class, input.sizeClass);
         set('footprint', 'footprint', f.footprint, footprint);
         set('tier', 'tier', f.tier, input.tier);
-        set('extras', 'extras', parseKeys(f.extras), extras);
+        set('extras', 'extras', current, extras);
         set('subAssemblies', 'sub_assemblies', parseKeys(f.sub_assemblies), input.subAssemblies);
         set('lightSource', 'light_source', f.light_source, input.lightSource);
         set('painterId', 'painter_id', f.painter_id, input.painterId, { from: f.painter_name, to: painterName });
