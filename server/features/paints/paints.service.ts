@@ -1,0 +1,150 @@
+import { hexToLab, matchBand, nearestInRack, prepareRack } from '../../../shared/color';
+import {
+  createPaintInput,
+  type CreatePaintInput,
+  type ImportReport,
+  type PaintListQuery,
+  type PaintMatchView,
+  type UpdatePaintInput,
+} from '../../../shared/schemas/paints';
+import { iso, type Clock } from '../../lib/clock';
+import type { Db } from '../../lib/db';
+import { errors } from '../../lib/errors';
+import { parseOrThrow } from '../../lib/validate';
+import { parsePaintsCsv, paintsToCsv } from './paints.csv';
+import { matchKey, toPaint, toPaintRef, type PaintRow, type PaintsRepository } from './paints.repository';
+
+const duplicate = () => errors.field('name', 'The rack already has a paint of this name from this maker.');
+const isUniqueViolation = (err: unknown) => /unique|duplicate/i.test(String((err as Error)?.message));
+const round2 = (n: number) => Math.round(n * 100) / 100;
+
+export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clock }) {
+  const { db, repo, clock } = deps;
+  const now = () => iso(clock.now());
+
+  async function get(studioId: number, id: number) {
+    const row = await repo.get(studioId, id);
+    if (!row) throw errors.notFound('That paint');
+    return toPaint(row);
+  }
+
+  /** The rack prepared for matching: Lab once per paint, rows by id for the answer. */
+  async function rack(studioId: number) {
+    const rows = await repo.colours(studioId);
+    const byId = new Map(rows.map((r) => [r.id, r]));
+    const prepared = prepareRack(rows.map((r) => ({ id: r.id, hex: r.hex! })));
+    return {
+      size: prepared.length,
+      nearest(hex: string, k = 3): PaintMatchView[] {
+        return nearestInRack(hexToLab(hex), prepared, k).map((m) => {
+          const deltaE = round2(m.deltaE);
+          // The band follows the rounded figure, so "1.99 · very close" and "2.00 · close" never disagree on screen.
+          return { paint: toPaintRef(byId.get(m.id) as PaintRow), deltaE, band: matchBand(deltaE) };
+        });
+      },
+    };
+  }
+
+  return {
+    get,
+    rack,
+    list: (studioId: number, q: PaintListQuery) => repo.list(studioId, q),
+    /** What recipes show of their paints, by id; ids not on this studio's rack are simply absent. */
+    async refsByIds(studioId: number, ids: number[]) {
+      return new Map((await repo.byIds(studioId, ids)).map((r) => [r.id, toPaintRef(r)]));
+    },
+    async byIds(studioId: number, ids: number[]) {
+      return new Map((await repo.byIds(studioId, ids)).map((r) => [r.id, toPaint(r)]));
+    },
+
+    async create(studioId: number, input: CreatePaintInput) {
+      if (await repo.findByMatchKey(studioId, matchKey(input.name, input.maker))) throw duplicate();
+      try {
+        return get(studioId, await repo.create(studioId, input, now()));
+      } catch (err) {
+        if (isUniqueViolation(err)) throw duplicate();
+        throw err;
+      }
+    },
+
+    async update(studioId: number, id: number, input: UpdatePaintInput) {
+      const current = await get(studioId, id);
+      // The merged paint must still be a whole paint (a colour paint keeps a colour).
+      const merged = parseOrThrow(createPaintInput, { ...current, ...Object.fromEntries(Object.entries(input).filter(([, v]) => v !== undefined)) });
+      const key = matchKey(merged.name, merged.maker);
+      const other = await repo.findByMatchKey(studioId, key);
+      if (other && other.id !== id) throw duplicate();
+      try {
+        await repo.update(studioId, id, input, key, now());
+      } catch (err) {
+        if (isUniqueViolation(err)) throw duplicate();
+        throw err;
+      }
+      return get(studioId, id);
+    },
+
+    async remove(studioId: number, id: number) {
+      await get(studioId, id);
+      const using = await repo.recipesUsing(studioId, id);
+      if (using.length) {
+        const names = using.slice(0, 3).map((r) => `"${r.name}"`).join(', ') + (using.length > 3 ? ` and ${using.length - 3} more` : '');
+        throw errors.conflict(`This paint is in ${using.length === 1 ? 'a recipe' : `${using.length} recipes`} (${names}). Take it out of them first, or set its stock to 0.`, 'paint_in_use', { recipes: using });
+      }
+      await repo.remove(studioId, id);
+    },
+
+    /**
+     * Good rows go in (a paint of the same name and maker is updated), bad ones are reported by line.
+     * Columns the file leaves out keep their values on paints that exist. One transaction for the good rows.
+     */
+    async importCsv(studioId: number, csv: string): Promise<ImportReport> {
+      const parsed = parsePaintsCsv(csv);
+      const skipped = [...parsed.skipped];
+      const firstLine = new Map<string, number>();
+      const rows = parsed.rows.filter((r) => {
+        const key = matchKey(r.input.name, r.input.maker);
+        const earlier = firstLine.get(key);
+        if (earlier !== undefined) {
+          skipped.push({ line: r.line, message: `Same name and maker as line ${earlier}; only the first was imported.` });
+          return false;
+        }
+        firstLine.set(key, r.line);
+        return true;
+      });
+      let created = 0;
+      let updated = 0;
+      await db.transaction(async (trx) => {
+        const at = now();
+        const existing = new Map<string, PaintRow>();
+        for (let i = 0; i < rows.length; i += 500) {
+          const chunk = rows.slice(i, i + 500).map((r) => matchKey(r.input.name, r.input.maker));
+          for (const p of await repo.byMatchKeys(studioId, chunk, trx)) existing.set(p.match_key, p);
+        }
+        for (const r of rows) {
+          const key = matchKey(r.input.name, r.input.maker);
+          const found = existing.get(key);
+          if (found) {
+            await repo.update(studioId, found.id, r.input, key, at, trx);
+            updated++;
+          } else {
+            await repo.create(studioId, r.input, at, trx);
+            created++;
+          }
+        }
+      });
+      skipped.sort((a, b) => a.line - b.line);
+      return { created, updated, skipped, notes: parsed.notes };
+    },
+
+    async exportCsv(studioId: number) {
+      return paintsToCsv(await repo.list(studioId));
+    },
+
+    async nearest(studioId: number, hex: string, k: number) {
+      const r = await rack(studioId);
+      return { hex, matches: r.nearest(hex, k) };
+    },
+  };
+}
+
+export type PaintsService = ReturnType<typeof paintsService>;

@@ -1,0 +1,152 @@
+import { isHex, ladder, mixPreview, psiToBar } from '../../../shared/color';
+import { sortHazards } from '../../../shared/hazards';
+import type { PaintRef } from '../../../shared/schemas/paints';
+import {
+  formatParts,
+  stepHazards,
+  swatchesOf,
+  type Recipe,
+  type RecipeInput,
+  type RecipeListQuery,
+  type RecipeStep,
+  type RecipeSummary,
+  type StepMix,
+} from '../../../shared/schemas/recipes';
+import { iso, type Clock } from '../../lib/clock';
+import { errors } from '../../lib/errors';
+import type { PaintsService } from '../paints/paints.service';
+import type { RecipeRow, RecipesRepository, StepPaintRow, StepRow } from './recipes.repository';
+
+const round2 = (n: number) => Math.round(n * 100) / 100;
+
+type StepPaint = { parts: number; paint: PaintRef };
+
+function mixOf(step: StepRow, paints: StepPaint[]): StepMix | null {
+  if (!paints.length) return null;
+  const refs = paints.map((p) => p.paint);
+  if (step.ladder_steps && refs.length === 2) {
+    const [from, to] = refs;
+    const rungs = from.hex && to.hex ? ladder(from.hex, to.hex, step.ladder_steps) : [];
+    return { kind: 'ladder', from, to, steps: step.ladder_steps, rungs };
+  }
+  // A medium or varnish without a colour thins the mix but does not tint the preview.
+  const coloured = paints.filter((p) => p.paint.hex && isHex(p.paint.hex));
+  const previewHex = coloured.length ? mixPreview(coloured.map((p) => ({ hex: p.paint.hex!, parts: p.parts }))) : null;
+  return { kind: 'mix', paints: paints.map((p, i) => ({ paint: refs[i], parts: p.parts })), ratio: formatParts(paints.map((p) => p.parts)), previewHex };
+}
+
+function stepView(step: StepRow, paints: StepPaint[]): RecipeStep {
+  const dilution =
+    step.dilution_with && step.dilution_paint_parts !== null
+      ? { diluent: step.dilution_diluent_parts ?? 0, paint: step.dilution_paint_parts, with: step.dilution_with }
+      : null;
+  const airbrush = Boolean(step.airbrush);
+  return {
+    id: step.id,
+    position: step.position,
+    technique: step.technique,
+    airbrush,
+    psi: step.psi,
+    bar: step.psi === null ? null : round2(psiToBar(step.psi)),
+    dilution,
+    mix: mixOf(step, paints),
+    tool: step.tool,
+    notes: step.notes,
+    hazards: stepHazards({ technique: step.technique, airbrush, dilution }, paints.map((p) => p.paint.type)),
+  };
+}
+
+export function recipesService(deps: { repo: RecipesRepository; paints: Pick<PaintsService, 'refsByIds'>; clock: Clock }) {
+  const { repo, paints, clock } = deps;
+  const now = () => iso(clock.now());
+
+  /** Recipes with their steps and paints, loaded in three queries whatever the number. */
+  async function hydrate(studioId: number, rows: RecipeRow[]): Promise<Recipe[]> {
+    const steps = await repo.steps(studioId, rows.map((r) => r.id));
+    const stepPaints: StepPaintRow[] = await repo.stepPaints(studioId, steps.map((s) => s.id));
+    const refs = await paints.refsByIds(studioId, [...new Set(stepPaints.map((p) => p.paint_id))]);
+    const paintsByStep = new Map<number, StepPaint[]>();
+    for (const p of stepPaints) {
+      const paint = refs.get(p.paint_id);
+      if (paint) paintsByStep.set(p.step_id, [...(paintsByStep.get(p.step_id) ?? []), { parts: p.parts, paint }]);
+    }
+    const stepsByRecipe = new Map<number, RecipeStep[]>();
+    for (const s of steps) stepsByRecipe.set(s.recipe_id, [...(stepsByRecipe.get(s.recipe_id) ?? []), stepView(s, paintsByStep.get(s.id) ?? [])]);
+    return rows.map((r) => {
+      const views = stepsByRecipe.get(r.id) ?? [];
+      return {
+        id: r.id,
+        name: r.name,
+        description: r.description,
+        colour: r.colour,
+        swatch: r.colour ?? swatchesOf(views)[0]?.hex ?? null,
+        sourcePhotoId: r.source_photo_id,
+        steps: views,
+        hazards: sortHazards(views.flatMap((s) => s.hazards)),
+        schemeCount: Number(r.scheme_count ?? 0),
+        createdAt: r.created_at,
+        updatedAt: r.updated_at,
+      };
+    });
+  }
+
+  const summarise = (r: Recipe): RecipeSummary => {
+    const { steps, description: _d, ...rest } = r;
+    const swatches = swatchesOf(steps).map((s) => s.hex);
+    return { ...rest, stepCount: steps.length, techniques: [...new Set(steps.map((s) => s.technique))], swatches };
+  };
+
+  async function get(studioId: number, id: number) {
+    const row = await repo.get(studioId, id);
+    if (!row) throw errors.notFound('That recipe');
+    return (await hydrate(studioId, [row]))[0];
+  }
+
+  /** Every paint must be on this studio's rack; the photo, if any, one of its photos. */
+  async function check(studioId: number, input: RecipeInput) {
+    const ids = [...new Set(input.steps.flatMap((s) => s.paints.map((p) => p.paintId)))];
+    const found = await paints.refsByIds(studioId, ids);
+    const fields: Record<string, string> = {};
+    input.steps.forEach((s, i) =>
+      s.paints.forEach((p, j) => {
+        if (!found.has(p.paintId)) fields[`steps.${i}.paints.${j}.paintId`] = 'That paint is not on the rack.';
+      }),
+    );
+    if (input.sourcePhotoId && !(await repo.photoInStudio(studioId, input.sourcePhotoId))) fields.sourcePhotoId = 'That photo was not found.';
+    if (Object.keys(fields).length) throw errors.invalid('Some fields need a look.', fields);
+  }
+
+  return {
+    get,
+    hydrate,
+    summarise,
+    async list(studioId: number, q: RecipeListQuery) {
+      return (await hydrate(studioId, await repo.list(studioId, q))).map(summarise);
+    },
+    /** Summaries of the given recipes, by id (for schemes). */
+    async summaries(studioId: number, ids: number[]) {
+      return new Map((await hydrate(studioId, await repo.byIds(studioId, ids))).map((r) => [r.id, r]));
+    },
+    async create(studioId: number, userId: number, input: RecipeInput) {
+      await check(studioId, input);
+      return get(studioId, await repo.create(studioId, userId, input, now()));
+    },
+    async replace(studioId: number, id: number, input: RecipeInput) {
+      await get(studioId, id);
+      await check(studioId, input);
+      await repo.replace(studioId, id, input, now());
+      return get(studioId, id);
+    },
+    async remove(studioId: number, id: number) {
+      await get(studioId, id);
+      const using = await repo.schemesUsing(studioId, id);
+      if (using.length) {
+        const names = using.slice(0, 3).map((c) => `"${c.title}"`).join(', ') + (using.length > 3 ? ` and ${using.length - 3} more` : '');
+        throw errors.conflict(`This recipe is in the scheme of ${names}. Take it out of the scheme first.`, 'recipe_in_use', { commissions: using });
+      }
+      await repo.remove(studioId, id);
+    },
+  };
+}
+
+export type RecipesService = ReturnType<typeof recipesService>;
