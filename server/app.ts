@@ -65,6 +65,18 @@ import { studioSetupService } from './features/studio-setup/studio-setup.service
 import { timeRepository } from './features/time/time.repository';
 import { timeRoutes } from './features/time/time.routes';
 import { timeService } from './features/time/time.service';
+import { paintsRepository } from './features/paints/paints.repository';
+import { paintsRoutes } from './features/paints/paints.routes';
+import { paintsService } from './features/paints/paints.service';
+import { paletteRepository } from './features/palette/palette.repository';
+import { paletteRoutes } from './features/palette/palette.routes';
+import { paletteService } from './features/palette/palette.service';
+import { recipesRepository } from './features/recipes/recipes.repository';
+import { recipesRoutes } from './features/recipes/recipes.routes';
+import { recipesService } from './features/recipes/recipes.service';
+import { schemesRepository } from './features/schemes/schemes.repository';
+import { schemesRoutes } from './features/schemes/schemes.routes';
+import { schemesService } from './features/schemes/schemes.service';
 import { loginInput } from '../shared/schemas/auth';
 import { seedDemo } from '../seeds/demo';
 
@@ -137,6 +149,12 @@ export async function createApp(config: Config) {
     // An approved "finished" moves the commission on through the lifecycle's own rules and log.
     finishCommission: (actor, commissionId) => commissions.transition(actor, commissionId, { to: 'ready_to_ship', reason: undefined }),
   });
+
+  // Paint rack, recipes, schemes and reference-photo palettes (photo bytes come through the photos service).
+  const paints = paintsService({ db, repo: paintsRepository(db), clock: config.clock });
+  const recipes = recipesService({ repo: recipesRepository(db), paints, clock: config.clock });
+  const schemes = schemesService({ repo: schemesRepository(db), recipes, paints, clock: config.clock });
+  const palette = paletteService({ repo: paletteRepository(db), photos, paints, limiter: createLimiter(2), clock: config.clock });
 
   if (config.demo && !(await db('studios').first('id'))) {
     await seedDemo(db, { clock: config.clock, hash: auth.hash, studios });
@@ -226,6 +244,10 @@ export async function createApp(config: Config) {
   photosRoutes(r, { allow, photos });
   commentsRoutes(r, { allow, comments });
   approvalsRoutes(r, { allow, approvals });
+  paintsRoutes(r, { allow, paints });
+  recipesRoutes(r, { allow, recipes });
+  schemesRoutes(r, { allow, schemes });
+  paletteRoutes(r, { allow, palette });
 
   // The payment webhook needs the exact bytes for its signature check, so it is parsed raw, before JSON.
   app.use('/api/webhooks/payments', express.raw({ type: () => true, limit: '1mb' }));
