@@ -65,6 +65,15 @@ import { studioSetupService } from './features/studio-setup/studio-setup.service
 import { timeRepository } from './features/time/time.repository';
 import { timeRoutes } from './features/time/time.routes';
 import { timeService } from './features/time/time.service';
+import { capacityRepository } from './features/capacity/capacity.repository';
+import { capacityRoutes } from './features/capacity/capacity.routes';
+import { capacityService } from './features/capacity/capacity.service';
+import { scheduleRepository } from './features/schedule/schedule.repository';
+import { scheduleRoutes } from './features/schedule/schedule.routes';
+import { scheduleService } from './features/schedule/schedule.service';
+import { calendarFeedRepository } from './features/calendar-feed/calendar-feed.repository';
+import { calendarFeedRoutes } from './features/calendar-feed/calendar-feed.routes';
+import { calendarFeedService } from './features/calendar-feed/calendar-feed.service';
 import { paintsRepository } from './features/paints/paints.repository';
 import { paintsRoutes } from './features/paints/paints.routes';
 import { paintsService } from './features/paints/paints.service';
@@ -122,6 +131,10 @@ export async function createApp(config: Config) {
   const commissions = commissionsService({ db, repo: commissionsRepository(db), figures, activity, clock: config.clock });
   const time = timeService({ db, repo: timeRepository(db), figures, activity, clock: config.clock });
   const board = boardService({ repo: boardRepository(db), figures, setup, clock: config.clock });
+  // The calendar: painters' hours and days off, the queue and its forecast, the per-person calendar feeds.
+  const capacity = capacityService({ db, repo: capacityRepository(db), clock: config.clock });
+  const schedule = scheduleService({ db, repo: scheduleRepository(db), capacity, clock: config.clock });
+  const calendarFeed = calendarFeedService({ db, repo: calendarFeedRepository(db), schedule, clock: config.clock, publicUrl: config.publicUrl });
   const invitations = invitationsService({
     db,
     repo: invitationsRepository(db),
@@ -244,6 +257,9 @@ export async function createApp(config: Config) {
   photosRoutes(r, { allow, photos });
   commentsRoutes(r, { allow, comments });
   approvalsRoutes(r, { allow, approvals });
+  capacityRoutes(r, { allow, capacity });
+  scheduleRoutes(r, { allow, schedule });
+  calendarFeedRoutes(r, { allow, calendarFeed });
   paintsRoutes(r, { allow, paints });
   recipesRoutes(r, { allow, recipes });
   schemesRoutes(r, { allow, schemes });

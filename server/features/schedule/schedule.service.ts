@@ -1,0 +1,238 @@
+import { minutesToHours } from '../../../shared/commission-lifecycle';
+import { addDays, isoWeek, localDateOf, parseLocalDate } from '../../../shared/dates';
+import {
+  earliestDelivery,
+  forecast,
+  weeklyHours,
+  type CommissionForecast,
+  type CommissionWork,
+  type Forecast,
+  type ForecastInput,
+  type StageWork,
+} from '../../../shared/schedule';
+import {
+  forecastInput,
+  type EarliestDeliveryQuery,
+  type EarliestDeliveryView,
+  type QueueOrderInput,
+  type ScheduleQuery,
+  type ScheduledCommission,
+  type ScheduledFigure,
+  type ScheduleView,
+  type TimelineWeek,
+} from '../../../shared/schemas/schedule';
+import { iso, type Clock } from '../../lib/clock';
+import type { Db } from '../../lib/db';
+import { errors } from '../../lib/errors';
+import type { Actor, CapacityService } from '../capacity/capacity.service';
+import type { QueueRow, ScheduleRepository, WorkFigureRow, WorkStageRow } from './schedule.repository';
+
+const HOUR_MIN = 60;
+
+/** `count` ISO 8601 weeks, the first holding `from`: week-numbering year, number, Monday and Sunday. */
+export function timelineWeeks(from: string, count: number): TimelineWeek[] {
+  const monday = addDays(from, 1 - isoWeek(from).weekday);
+  return Array.from({ length: count }, (_, i) => {
+    const start = addDays(monday, 7 * i);
+    const w = isoWeek(start);
+    return { year: w.year, week: w.week, label: `W${String(w.week).padStart(2, '0')}`, start, end: addDays(start, 6) };
+  });
+}
+
+const daysBetween = (from: string, to: string) => parseLocalDate(to) - parseLocalDate(from);
+
+/** A stage as the forecast sees it: bench time left is the estimate less the time logged on it. */
+function stageWork(s: WorkStageRow, loggedMinutes: number, now: string): StageWork {
+  const waitHoursAfter = s.wait_minutes / HOUR_MIN;
+  if (s.status === 'skipped') return { id: s.id, remainingHours: 0 };
+  if (s.status === 'done') return { id: s.id, remainingHours: 0, waitHoursAfter, finishedAt: s.done_at };
+  const remaining = Math.max(0, s.estimate_minutes - loggedMinutes);
+  // Not done but no time left on the estimate: treat it as finishing now, so its wait still counts.
+  return remaining > 0 ? { id: s.id, remainingHours: remaining / HOUR_MIN, waitHoursAfter } : { id: s.id, remainingHours: 0, waitHoursAfter, finishedAt: now };
+}
+
+type Work = { figures: WorkFigureRow[]; stages: WorkStageRow[]; logged: Map<number, number> };
+
+function commissionWork(c: Pick<QueueRow, 'id' | 'due_date'>, work: Work, now: string): CommissionWork {
+  return {
+    id: c.id,
+    dueDate: c.due_date,
+    figures: work.figures
+      .filter((f) => f.commission_id === c.id)
+      .map((f) => ({
+        id: f.id,
+        painterId: f.painter_id,
+        stages: work.stages.filter((s) => s.figure_id === f.id).map((s) => stageWork(s, work.logged.get(s.id) ?? 0, now)),
+      })),
+  };
+}
+
+export type StudioForecast = {
+  input: ForecastInput;
+  forecast: Forecast;
+  today: string;
+  queue: QueueRow[];
+  work: Work;
+  painters: { id: number; name: string; weeklyHours: number }[];
+  names: Map<number, string>;
+};
+
+export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capacity: CapacityService; clock: Clock }) {
+  const { db, repo, capacity, clock } = deps;
+
+  /** Reads the queue, the work left and the painters' time from the database and runs the forecast. */
+  async function run(studioId: number): Promise<StudioForecast> {
+    const nowDate = clock.now();
+    const now = iso(nowDate);
+    const [queue, cap] = await Promise.all([repo.queue(studioId), capacity.forForecast(studioId)]);
+    const work = await repo.work(studioId, queue.map((c) => c.id));
+    const input: ForecastInput = {
+      timeZone: cap.timeZone,
+      now,
+      painters: cap.painters.map(({ id, hours, daysOff }) => ({ id, hours, daysOff })),
+      closedDays: cap.closedDays,
+      queue: queue.map((c) => commissionWork(c, work, now)),
+    };
+    // The database is ours, but a bad row (a malformed date) should fail here with a clear cause.
+    const checked = forecastInput.safeParse(input);
+    if (!checked.success) throw new Error(`Forecast input from the database is not valid: ${checked.error.message}`);
+    const names = new Map(cap.painters.map((p) => [p.id, p.name]));
+    const strangers = [...new Set(work.figures.map((f) => f.painter_id).filter((id): id is number => id !== null && !names.has(id)))];
+    for (const u of await repo.userNames(strangers)) names.set(u.id, u.name);
+    return {
+      input,
+      forecast: forecast(input),
+      today: localDateOf(nowDate.getTime(), cap.timeZone),
+      queue,
+      work,
+      painters: cap.painters.map((p) => ({ id: p.id, name: p.name, weeklyHours: Math.round(weeklyHours(p) * 100) / 100 })),
+      names,
+    };
+  }
+
+  function remainingOf(stages: StageWork[]) {
+    return minutesToHours(Math.round(stages.reduce((n, s) => n + s.remainingHours * HOUR_MIN, 0)));
+  }
+
+  /** The forecast of each commission joined with its title, client, figures and place in the queue. */
+  function describe(sf: StudioForecast, forClient: boolean): ScheduledCommission[] {
+    const stageNames = new Map(sf.work.stages.map((s) => [s.id, s.name]));
+    const figureRows = new Map(sf.work.figures.map((f) => [f.id, f]));
+    return sf.forecast.commissions.map((fc, i) => {
+      const row = sf.queue[i];
+      const work = sf.input.queue[i];
+      const figures: ScheduledFigure[] = fc.figures.map((ff, j) => {
+        const f = figureRows.get(Number(ff.id))!;
+        const painterId = ff.painterId === null ? null : Number(ff.painterId);
+        return {
+          id: f.id,
+          name: f.name,
+          quantity: f.quantity,
+          painter: forClient || painterId === null ? null : { id: painterId, name: sf.names.get(painterId) ?? 'Former member' },
+          painterChosen: forClient ? false : ff.painterChosen,
+          remainingHours: remainingOf(work.figures[j].stages as StageWork[]),
+          start: ff.start,
+          finish: ff.finish,
+          startDate: ff.startDate,
+          finishDate: ff.finishDate,
+          late: ff.late,
+          unscheduled: ff.unscheduled,
+          ...(forClient ? {} : { blocks: ff.blocks.map((b) => ({ stageId: Number(b.stageId), stageName: stageNames.get(Number(b.stageId)) ?? '', start: b.start, end: b.end })) }),
+        };
+      });
+      return {
+        id: row.id,
+        title: row.title,
+        status: row.status,
+        client: { id: row.client_id, name: row.client_name },
+        dueDate: row.due_date,
+        queuePosition: i + 1,
+        remainingHours: remainingOf(work.figures.flatMap((f) => f.stages as StageWork[])),
+        start: fc.start,
+        finish: fc.finish,
+        startDate: fc.startDate,
+        finishDate: fc.finishDate,
+        late: fc.late,
+        slackDays: row.due_date && fc.finishDate ? daysBetween(fc.finishDate, row.due_date) : null,
+        unscheduled: fc.figures.find((f) => f.unscheduled)?.unscheduled ?? null,
+        figures,
+      };
+    });
+  }
+
+  async function view(actor: Actor, q: ScheduleQuery): Promise<ScheduleView> {
+    const sf = await run(actor.studioId);
+    const forClient = actor.role === 'client';
+    let commissions = describe(sf, forClient);
+    // A client sees where their own commissions stand, nothing of anyone else's.
+    if (forClient) commissions = commissions.filter((c) => c.client.id === actor.clientId);
+    return {
+      timeZone: sf.input.timeZone,
+      now: sf.input.now,
+      today: sf.today,
+      weeks: timelineWeeks(q.from ?? sf.today, q.weeks),
+      painters: forClient ? [] : sf.painters,
+      commissions: forClient ? commissions.map((c) => ({ ...c, queuePosition: null })) : commissions,
+    };
+  }
+
+  function deliveryView(sf: StudioForecast, fc: CommissionForecast, hours: number, ahead: number): EarliestDeliveryView {
+    return {
+      timeZone: sf.input.timeZone,
+      today: sf.today,
+      date: fc.finishDate,
+      start: fc.start,
+      finish: fc.finish,
+      hours: minutesToHours(Math.round(hours * HOUR_MIN)),
+      unscheduled: fc.figures.find((f) => f.unscheduled)?.unscheduled ?? null,
+      queueLength: ahead,
+    };
+  }
+
+  return {
+    run,
+    describe,
+    view,
+
+    /** Puts the queue in a new order; the list must hold exactly the commissions in the queue now. */
+    async reorder(actor: Actor, input: QueueOrderInput) {
+      await db.transaction(async (trx) => {
+        const current = await repo.queue(actor.studioId, trx);
+        const ids = new Set(current.map((c) => c.id));
+        const same = input.commissionIds.length === ids.size && input.commissionIds.every((id) => ids.has(id));
+        if (!same) {
+          throw errors.conflict('The queue changed while you were arranging it (a commission was booked, started or finished). Reload the queue and try again.', 'queue_changed', {
+            queue: current.map((c) => c.id),
+          });
+        }
+        await repo.setOrder(trx, actor.studioId, input.commissionIds);
+      });
+      return view(actor, { weeks: 8 });
+    },
+
+    /** "If booked today": the projected finish of this work added at the end of the queue now. */
+    async earliestDelivery(actor: Actor, q: EarliestDeliveryQuery): Promise<EarliestDeliveryView> {
+      const sf = await run(actor.studioId);
+      if (q.painterId !== undefined && !sf.painters.some((p) => p.id === q.painterId)) throw errors.field('painterId', 'Choose a painter or owner of this studio.');
+      if (q.commissionId !== undefined) {
+        const c = await repo.commission(actor.studioId, q.commissionId);
+        if (!c) throw errors.notFound('That commission');
+        const inQueue = sf.queue.findIndex((x) => x.id === c.id);
+        const work = inQueue >= 0 ? sf.input.queue[inQueue] : commissionWork(c, await repo.work(actor.studioId, [c.id]), sf.input.now);
+        const hours = work.figures.flatMap((f) => f.stages).reduce((n, s) => n + s.remainingHours, 0);
+        // Already booked: it has its place; otherwise it joins the end of the queue.
+        if (inQueue >= 0) return deliveryView(sf, sf.forecast.commissions[inQueue], hours, inQueue);
+        const placed = q.painterId === undefined ? work : { ...work, figures: work.figures.map((f) => ({ ...f, painterId: q.painterId! })) };
+        return deliveryView(sf, earliestDelivery(sf.input, placed), hours, sf.queue.length);
+      }
+      const hours = q.hours!;
+      const work: CommissionWork = {
+        id: 'new',
+        figures: [{ id: 'new', painterId: q.painterId ?? null, stages: [{ id: 'work', remainingHours: hours, waitHoursAfter: q.waitHours ?? 0 }] }],
+      };
+      return deliveryView(sf, earliestDelivery(sf.input, work), hours, sf.queue.length);
+    },
+  };
+}
+
+export type ScheduleService = ReturnType<typeof scheduleService>;
