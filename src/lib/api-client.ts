@@ -112,9 +112,11 @@ async function readErrorBody(res: Response): Promise<Partial<ApiErrorBody> | nul
 }
 
 async function toApiError(res: Response): Promise<ApiError> {
-  const body = await readErrorBody(res);
+  return errorFrom(res.status, await readErrorBody(res), res.headers.get('Retry-After'));
+}
+
+function errorFrom(status: number, body: Partial<ApiErrorBody> | null, retryAfter: string | null): ApiError {
   const e = body?.error;
-  const status = res.status;
   return new ApiError({
     status,
     code: typeof e?.code === 'string' ? e.code : status >= 500 ? 'server_error' : `http_${status}`,
@@ -123,7 +125,7 @@ async function toApiError(res: Response): Promise<ApiError> {
         ? e.message
         : (FALLBACK_MESSAGES[status] ?? 'Something went wrong on our side. Try again in a moment.'),
     fields: e?.fields && typeof e.fields === 'object' ? e.fields : undefined,
-    retryAfter: parseRetryAfter(res.headers.get('Retry-After')),
+    retryAfter: parseRetryAfter(retryAfter),
   });
 }
 
@@ -179,5 +181,50 @@ export async function api<T>(path: string, opts: RequestOptions = {}): Promise<T
     const result = await send<T>(path, { ...opts, token: await fetchCsrfToken() });
     if (opts.rotatesSession) refreshCsrfToken();
     return result;
+  }
+}
+
+export type UploadProgress = { loaded: number; total: number };
+
+function sendForm<T>(path: string, form: FormData, token: string, opts: { onProgress?: (p: UploadProgress) => void; signal?: AbortSignal }): Promise<T> {
+  return new Promise<T>((resolve, reject) => {
+    const xhr = new XMLHttpRequest();
+    xhr.open('POST', path);
+    xhr.withCredentials = true;
+    xhr.setRequestHeader('Accept', 'application/json');
+    xhr.setRequestHeader('x-csrf-token', token);
+    xhr.upload.onprogress = (e) => {
+      if (e.lengthComputable) opts.onProgress?.({ loaded: e.loaded, total: e.total });
+    };
+    xhr.onload = () => {
+      let body: unknown = null;
+      try {
+        body = xhr.responseText ? JSON.parse(xhr.responseText) : null;
+      } catch {
+        body = null;
+      }
+      if (xhr.status >= 200 && xhr.status < 300) resolve(body as T);
+      else reject(errorFrom(xhr.status, body as Partial<ApiErrorBody> | null, xhr.getResponseHeader('Retry-After')));
+    };
+    xhr.onerror = () =>
+      reject(new ApiError({ status: 0, code: 'network', message: 'The upload did not reach Sablework. Check your connection and try again.' }));
+    xhr.onabort = () => reject(new DOMException('The upload was stopped.', 'AbortError'));
+    opts.signal?.addEventListener('abort', () => xhr.abort(), { once: true });
+    xhr.send(form);
+  });
+}
+
+/**
+ * Multipart upload with progress (fetch cannot report upload progress, XMLHttpRequest can). Same
+ * CSRF handling and error shape as `api`; the browser sets the multipart boundary itself.
+ */
+export async function upload<T>(path: string, form: FormData, opts: { onProgress?: (p: UploadProgress) => void; signal?: AbortSignal } = {}): Promise<T> {
+  try {
+    return await sendForm<T>(path, form, await csrf(), opts);
+  } catch (err) {
+    if (!(isApiError(err, 403) && err.code === 'csrf')) throw err;
+    csrfToken = null;
+    csrfRequest = null;
+    return sendForm<T>(path, form, await fetchCsrfToken(), opts);
   }
 }

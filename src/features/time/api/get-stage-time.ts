@@ -1,0 +1,18 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import type { TimeEntry } from '../../../../shared/schemas/commissions';
+import { api } from '../../../lib/api-client';
+
+export function getStageTime(studioId: number, stageId: number, signal?: AbortSignal): Promise<TimeEntry[]> {
+  return api<TimeEntry[]>(`/api/studios/${studioId}/stages/${stageId}/time`, { signal });
+}
+
+export function stageTimeQueryOptions(studioId: number, stageId: number) {
+  return queryOptions({
+    queryKey: ['time', 'stage', { studioId, stageId }] as const,
+    queryFn: ({ signal }) => getStageTime(studioId, stageId, signal),
+  });
+}
+
+export function useStageTime(studioId: number, stageId: number) {
+  return useQuery(stageTimeQueryOptions(studioId, stageId));
+}
