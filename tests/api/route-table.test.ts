@@ -74,6 +74,18 @@ const table: Row[] = [
   ['POST', '/api/studios/:studioId/approvals/:approvalId/request-changes', 401, 403, 403, 400, 404],
   // The client's approval decides the request; no row after this one uses it.
   ['POST', '/api/studios/:studioId/approvals/:approvalId/approve', 401, 403, 403, 200, 404],
+  // Capacity, queue and forecast, calendar feeds (issue 6). :painterId is studio A's painter (their own hours); no day off exists.
+  ['GET', '/api/studios/:studioId/capacity', 401, 200, 200, 403, 404],
+  ['PUT', '/api/studios/:studioId/capacity/painters/:painterId/hours', 401, 400, 400, 403, 404],
+  ['POST', '/api/studios/:studioId/capacity/days-off', 401, 400, 400, 403, 404],
+  ['DELETE', '/api/studios/:studioId/capacity/days-off/:dayOffId', 401, 404, 404, 403, 404],
+  ['GET', '/api/studios/:studioId/schedule', 401, 200, 200, 200, 404],
+  ['PUT', '/api/studios/:studioId/schedule/queue', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/schedule/earliest-delivery', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/calendar-feed', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/calendar-feed', 401, 201, 201, 403, 404],
+  ['DELETE', '/api/studios/:studioId/calendar-feed', 401, 204, 204, 403, 404],
+  ['GET', '/api/calendar/:token.ics', 404, 404, 404, 404, 404],
   // Deletions run last among these rows: the owner's call removes the record, so the painter after it meets 404.
   ['DELETE', '/api/studios/:studioId/time/:entryId', 401, 204, 404, 403, 404],
   ['DELETE', '/api/studios/:studioId/figures/:figureId', 401, 204, 403, 403, 404],
@@ -102,6 +114,8 @@ beforeAll(async () => {
   const photos = await upload(a.owner, `/api/studios/${a.studioId}/commissions/${ids.commissionId}/photos`, [{ data: await images.twoTone(64, 48), name: 'table.jpg' }], { kind: 'progress', shared: 'true' });
   const approval = await a.owner.post(`/api/studios/${a.studioId}/commissions/${ids.commissionId}/approvals`, { subject: 'scheme' });
   Object.assign(ids, { photoId: String(photos.body[0].id), size: 'thumb', approvalId: String(approval.body.id) });
+  // Issue 6: the painter's own capacity row; a day off that does not exist.
+  Object.assign(ids, { painterId: String((await sw.db('users').where({ email: emails.painter }).first('id')).id), dayOffId: '999999' });
 });
 afterAll(() => sw.stop());
 
