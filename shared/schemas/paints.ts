@@ -34,17 +34,24 @@ export const hexColour = z
   .refine((v) => isHex(v), HEX_MESSAGE)
   .transform((v) => normalizeHex(v));
 
-const optionalHex = z
-  .union([z.null(), z.literal(''), hexColour])
-  .transform((v) => (v === '' || v === null ? null : v))
-  .optional();
+/** A colour that may be cleared: null or '' clear it, undefined leaves it. */
+export const optionalHex = z
+  .string({ error: HEX_MESSAGE })
+  .trim()
+  .nullable()
+  .optional()
+  .refine((v) => v === undefined || v === null || v === '' || isHex(v), HEX_MESSAGE)
+  .transform((v) => (v === undefined || v === null ? v : v === '' ? null : normalizeHex(v)));
 
 /** Text that can be cleared: null or '' clear it. */
 const clearable = (max: number) =>
   z
-    .union([z.null(), z.string().trim().max(max, `Use at most ${max} characters.`)])
-    .transform((v) => (v === '' ? null : v))
-    .optional();
+    .string()
+    .trim()
+    .max(max, `Use at most ${max} characters.`)
+    .nullable()
+    .optional()
+    .transform((v) => (v === '' ? null : v));
 
 const count = (what: string) =>
   z
@@ -58,13 +65,10 @@ const paintFields = z.object({
   maker: clearable(80),
   range: clearable(80),
   type: z.enum(paintTypes, { error: 'Choose a type from the list.' }),
-  finish: z
-    .union([z.null(), z.literal(''), z.enum(finishes, { error: 'Choose matte, satin or gloss.' })])
-    .transform((v) => (v === '' ? null : v))
-    .optional(),
+  finish: z.preprocess((v) => (v === '' ? null : v), z.enum(finishes, { error: 'Choose matte, satin or gloss.' }).nullable().optional()),
   hex: optionalHex,
   stock: count('the pots in stock').optional(),
-  lowStockThreshold: z.union([z.null(), count('the low-stock level')]).optional(),
+  lowStockThreshold: count('the low-stock level').nullable().optional(),
   notes: clearable(2000),
 });
 

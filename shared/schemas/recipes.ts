@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import type { LadderStep } from '../color';
 import { hazardsOfTechniques, type HazardKey } from '../hazards';
-import { hexColour, type PaintRef, type PaintType } from './paints';
+import { optionalHex, type PaintRef, type PaintType } from './paints';
 
 export const recipeTechniques = [
   'basecoat',
@@ -63,9 +63,12 @@ export type DilutionInput = z.infer<typeof dilutionInput>;
 
 const optionalText = (max: number) =>
   z
-    .union([z.null(), z.string().trim().max(max, `Use at most ${max} characters.`)])
-    .transform((v) => (v === '' || v === null ? null : v))
-    .optional();
+    .string()
+    .trim()
+    .max(max, `Use at most ${max} characters.`)
+    .nullable()
+    .optional()
+    .transform((v) => (v === '' ? null : v));
 
 export const stepInput = z
   .object({
@@ -73,10 +76,16 @@ export const stepInput = z
     /** Applied with an airbrush (always so for the airbrush technique). */
     airbrush: z.boolean().optional().default(false),
     psi: z
-      .union([z.null(), z.number({ error: 'Enter the pressure in psi.' }).min(MIN_PSI, `At least ${MIN_PSI} psi.`).max(MAX_PSI, `At most ${MAX_PSI} psi.`)])
+      .number({ error: 'Enter the pressure in psi.' })
+      .min(MIN_PSI, `At least ${MIN_PSI} psi.`)
+      .max(MAX_PSI, `At most ${MAX_PSI} psi.`)
+      .nullable()
       .optional()
       .transform((v) => v ?? null),
-    dilution: z.union([z.null(), dilutionInput]).optional().transform((v) => v ?? null),
+    dilution: dilutionInput
+      .nullable()
+      .optional()
+      .transform((v) => v ?? null),
     paints: z
       .array(
         z.object({
@@ -89,7 +98,11 @@ export const stepInput = z
       .default([]),
     /** A ladder of progressive mixes from the first paint to the second in this many steps. */
     ladderSteps: z
-      .union([z.null(), z.number({ error: 'Enter the number of steps.' }).int('Use a whole number.').min(1, 'At least 1 step.').max(MAX_LADDER_STEPS, `At most ${MAX_LADDER_STEPS} steps.`)])
+      .number({ error: 'Enter the number of steps.' })
+      .int('Use a whole number.')
+      .min(1, 'At least 1 step.')
+      .max(MAX_LADDER_STEPS, `At most ${MAX_LADDER_STEPS} steps.`)
+      .nullable()
       .optional()
       .transform((v) => v ?? null),
     tool: optionalText(80),
@@ -112,11 +125,8 @@ export type StepInput = z.infer<typeof stepInput>;
 export const recipeInput = z.object({
   name: z.string({ error: 'Name the recipe.' }).trim().min(1, 'Name the recipe, e.g. "washed denim".').max(120, 'Use at most 120 characters.'),
   description: optionalText(2000),
-  colour: z
-    .union([z.null(), z.literal(''), hexColour])
-    .transform((v) => (v === '' || v === null ? null : v))
-    .optional(),
-  sourcePhotoId: z.union([z.null(), z.number().int().positive()]).optional(),
+  colour: optionalHex,
+  sourcePhotoId: z.number().int().positive().nullable().optional(),
   steps: z.array(stepInput).max(30, 'At most 30 steps.').optional().default([]),
 });
 export type RecipeInput = z.infer<typeof recipeInput>;
@@ -125,7 +135,7 @@ export const recipeListQuery = z.object({ q: z.string().trim().max(200).optional
 export type RecipeListQuery = z.infer<typeof recipeListQuery>;
 
 export const schemeEntryInput = z.object({
-  figureId: z.union([z.null(), z.number().int().positive()]).optional(),
+  figureId: z.number({ error: 'Choose a figure, or the whole commission.' }).int().positive().nullable().optional(),
   area: z.string({ error: 'Name the area, e.g. "cloak".' }).trim().min(1, 'Name the area, e.g. "cloak".').max(80, 'Use at most 80 characters.'),
   recipeId: z.number({ error: 'Choose a recipe.' }).int('Choose a recipe.').positive('Choose a recipe.'),
   notes: optionalText(500),

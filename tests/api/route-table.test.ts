@@ -86,10 +86,31 @@ const table: Row[] = [
   ['POST', '/api/studios/:studioId/calendar-feed', 401, 201, 201, 403, 404],
   ['DELETE', '/api/studios/:studioId/calendar-feed', 401, 204, 204, 403, 404],
   ['GET', '/api/calendar/:token.ics', 404, 404, 404, 404, 404],
+  // Paint rack, recipes, schemes, palettes (issue 5). The paint is in the recipe and the recipe in the scheme, so neither can be removed (409).
+  ['GET', '/api/studios/:studioId/paints', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/paints', 401, 400, 400, 403, 404],
+  ['GET', '/api/studios/:studioId/paints/export', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/paints/import', 401, 400, 400, 403, 404],
+  ['GET', '/api/studios/:studioId/paints/nearest', 401, 400, 400, 403, 404],
+  ['GET', '/api/studios/:studioId/paints/:paintId', 401, 200, 200, 403, 404],
+  ['PATCH', '/api/studios/:studioId/paints/:paintId', 401, 200, 200, 403, 404],
+  ['DELETE', '/api/studios/:studioId/paints/:paintId', 401, 409, 409, 403, 404],
+  ['GET', '/api/studios/:studioId/recipes', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/recipes', 401, 400, 400, 403, 404],
+  ['GET', '/api/studios/:studioId/recipes/:recipeId', 401, 200, 200, 403, 404],
+  ['PUT', '/api/studios/:studioId/recipes/:recipeId', 401, 400, 400, 403, 404],
+  ['DELETE', '/api/studios/:studioId/recipes/:recipeId', 401, 409, 409, 403, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/scheme', 401, 200, 200, 200, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/scheme', 401, 400, 400, 403, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/shopping-list', 401, 200, 200, 403, 404],
+  ['PATCH', '/api/studios/:studioId/scheme-entries/:schemeEntryId', 401, 200, 200, 403, 404],
+  ['GET', '/api/studios/:studioId/reference-photos/:referencePhotoId/palette', 401, 200, 200, 403, 404],
+  ['GET', '/api/studios/:studioId/reference-photos/:referencePhotoId/point', 401, 400, 400, 403, 404],
   // Deletions run last among these rows: the owner's call removes the record, so the painter after it meets 404.
   ['DELETE', '/api/studios/:studioId/time/:entryId', 401, 204, 404, 403, 404],
   ['DELETE', '/api/studios/:studioId/figures/:figureId', 401, 204, 403, 403, 404],
   ['DELETE', '/api/studios/:studioId/photos/:photoId', 401, 204, 404, 403, 404],
+  ['DELETE', '/api/studios/:studioId/scheme-entries/:schemeEntryId', 401, 200, 404, 403, 404],
 ];
 
 let sw: TestApp;
@@ -116,6 +137,13 @@ beforeAll(async () => {
   Object.assign(ids, { photoId: String(photos.body[0].id), size: 'thumb', approvalId: String(approval.body.id) });
   // Issue 6: the painter's own capacity row; a day off that does not exist.
   Object.assign(ids, { painterId: String((await sw.db('users').where({ email: emails.painter }).first('id')).id), dayOffId: '999999' });
+  // Issue 5: a paint in a recipe, the recipe in the commission's scheme, and a reference photo the client sent.
+  const A = `/api/studios/${a.studioId}`;
+  const paint = await a.owner.post(`${A}/paints`, { name: 'Table navy', type: 'base', hex: '#1F3A93' });
+  const recipe = await a.owner.post(`${A}/recipes`, { name: 'Table denim', steps: [{ technique: 'basecoat', paints: [{ paintId: paint.body.id }] }] });
+  const scheme = await a.owner.post(`${A}/commissions/${ids.commissionId}/scheme`, { area: 'Trousers', recipeId: recipe.body.id });
+  const reference = await upload(a.client, `${A}/commissions/${ids.commissionId}/photos`, [{ data: await images.twoTone(64, 48), name: 'ref.jpg' }], { kind: 'reference' });
+  Object.assign(ids, { paintId: String(paint.body.id), recipeId: String(recipe.body.id), schemeEntryId: String(scheme.body.entries[0].id), referencePhotoId: String(reference.body[0].id) });
 });
 afterAll(() => sw.stop());
 

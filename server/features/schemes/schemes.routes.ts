@@ -7,7 +7,7 @@ import { validate } from '../../lib/validate';
 import type { SchemesService } from './schemes.service';
 
 const commissionParams = z.object({ studioId: id, commissionId: id });
-const entryParams = z.object({ studioId: id, entryId: id });
+const entryParams = z.object({ studioId: id, schemeEntryId: id });
 
 /** The client reads their own commission's scheme (swatches only); the studio writes it and sees what to buy. */
 export function schemesRoutes(r: RouteTable, deps: { allow: Allow; schemes: SchemesService }) {
@@ -15,6 +15,6 @@ export function schemesRoutes(r: RouteTable, deps: { allow: Allow; schemes: Sche
   r.get('/studios/:studioId/commissions/:commissionId/scheme', allow('owner', 'painter', 'client'), validate({ params: commissionParams }), json((req, res) => schemes.get(member(req), params(res).commissionId)));
   r.post('/studios/:studioId/commissions/:commissionId/scheme', allow('owner', 'painter'), validate({ params: commissionParams, body: schemeEntryInput }), json((req, res) => schemes.add(member(req), params(res).commissionId, req.body), 201));
   r.get('/studios/:studioId/commissions/:commissionId/shopping-list', allow('owner', 'painter'), validate({ params: commissionParams }), json((req, res) => schemes.shoppingList(member(req), params(res).commissionId)));
-  r.patch('/studios/:studioId/scheme-entries/:entryId', allow('owner', 'painter'), validate({ params: entryParams, body: updateSchemeEntryInput }), json((req, res) => schemes.update(member(req), params(res).entryId, req.body)));
-  r.delete('/studios/:studioId/scheme-entries/:entryId', allow('owner', 'painter'), validate({ params: entryParams }), json((req, res) => schemes.remove(member(req), params(res).entryId)));
+  r.patch('/studios/:studioId/scheme-entries/:schemeEntryId', allow('owner', 'painter'), validate({ params: entryParams, body: updateSchemeEntryInput }), json((req, res) => schemes.update(member(req), params(res).schemeEntryId, req.body)));
+  r.delete('/studios/:studioId/scheme-entries/:schemeEntryId', allow('owner', 'painter'), validate({ params: entryParams }), json((req, res) => schemes.remove(member(req), params(res).schemeEntryId)));
 }
