@@ -3,6 +3,7 @@ import { iso, type Clock } from '../server/lib/clock';
 import type { Db } from '../server/lib/db';
 import type { StudiosService } from '../server/features/studios/studios.service';
 import { commissionsDemo } from './demo-commissions';
+import { paintsDemo } from './demo-paints';
 
 /**
  * The demo scenario: an invented studio, its people and clients. Every name here is made up
@@ -18,6 +19,7 @@ export type DemoContext = {
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
 export const demoSteps: DemoStep[] = [];
 demoSteps.push(commissionsDemo);
+demoSteps.push(paintsDemo);
 
 export async function seedDemo(db: Db, deps: { clock: Clock; hash: (p: string) => Promise<string>; studios: StudiosService }) {
   const now = iso(deps.clock.now());
