@@ -86,6 +86,21 @@ import { recipesService } from './features/recipes/recipes.service';
 import { schemesRepository } from './features/schemes/schemes.repository';
 import { schemesRoutes } from './features/schemes/schemes.routes';
 import { schemesService } from './features/schemes/schemes.service';
+import { priceTableRepository } from './features/price-table/price-table.repository';
+import { priceTableRoutes } from './features/price-table/price-table.routes';
+import { priceTableService } from './features/price-table/price-table.service';
+import { quotesRepository } from './features/quotes/quotes.repository';
+import { quotesRoutes } from './features/quotes/quotes.routes';
+import { quotesService } from './features/quotes/quotes.service';
+import { invoicesRepository } from './features/invoices/invoices.repository';
+import { invoicesRoutes } from './features/invoices/invoices.routes';
+import { invoicesService } from './features/invoices/invoices.service';
+import { paymentEventsRepository } from './features/payments-webhook/payments-webhook.repository';
+import { paymentsWebhookRoutes } from './features/payments-webhook/payments-webhook.routes';
+import { paymentsWebhookService } from './features/payments-webhook/payments-webhook.service';
+import { moneyRepository } from './features/money/money.repository';
+import { moneyRoutes } from './features/money/money.routes';
+import { moneyService } from './features/money/money.service';
 import { loginInput } from '../shared/schemas/auth';
 import { seedDemo } from '../seeds/demo';
 
@@ -168,6 +183,43 @@ export async function createApp(config: Config) {
   const recipes = recipesService({ repo: recipesRepository(db), paints, clock: config.clock });
   const schemes = schemesService({ repo: schemesRepository(db), recipes, paints, clock: config.clock });
   const palette = paletteService({ repo: paletteRepository(db), photos, paints, limiter: createLimiter(2), clock: config.clock });
+
+  // Money: the price table, quotes priced by the shared engine, invoices with their numbers and payments,
+  // checkouts and verified events of the payment service, the owner's money view.
+  const priceTables = priceTableService({ db, repo: priceTableRepository(db), clock: config.clock });
+  const quotesRepo = quotesRepository(db);
+  const invoices = invoicesService({
+    db,
+    repo: invoicesRepository(db),
+    payments,
+    mailer,
+    clock: config.clock,
+    publicUrl: config.publicUrl,
+    priceTable: (studioId, trx) => priceTables.get(studioId, trx),
+    acceptedQuote: (studioId, commissionId, trx) => quotesRepo.accepted(studioId, commissionId, trx),
+    // The deposit's confirmed payment books the commission and puts it at the end of the queue.
+    bookCommission: async (trx, by, commissionId) => {
+      await commissions.bookIfQuoted(trx, by, commissionId);
+    },
+    cancelCommission: (actor, commissionId, reason) => commissions.transition(actor, commissionId, { to: 'cancelled', reason }),
+  });
+  // The balance invoice goes out when the commission is ready to ship (the client approved the finished work).
+  commissions.onStatusChange((trx, change) => invoices.onCommissionStatus(trx, change));
+  const quotes = quotesService({
+    db,
+    repo: quotesRepo,
+    priceTables,
+    invoices,
+    activity,
+    mailer,
+    clock: config.clock,
+    publicUrl: config.publicUrl,
+    figuresOf: async (studioId, commissionId, trx) => (await figures.views(studioId, { commissionIds: [commissionId] }, false, trx)).figures,
+    setStageEstimates: (trx, studioId, figureId, minutes) => figures.setStageEstimates(trx, studioId, figureId, minutes),
+    moveCommission: (trx, by, commissionId, to) => commissions.transitionIn(trx, by, commissionId, to),
+  });
+  const webhook = paymentsWebhookService({ db, repo: paymentEventsRepository(db), payments, invoices, clock: config.clock });
+  const money = moneyService({ repo: moneyRepository(db), priceTables, clock: config.clock });
 
   if (config.demo && !(await db('studios').first('id'))) {
     await seedDemo(db, { clock: config.clock, hash: auth.hash, studios });
@@ -257,6 +309,11 @@ export async function createApp(config: Config) {
   photosRoutes(r, { allow, photos });
   commentsRoutes(r, { allow, comments });
   approvalsRoutes(r, { allow, approvals });
+  priceTableRoutes(r, { allow, priceTables });
+  quotesRoutes(r, { allow, quotes });
+  invoicesRoutes(r, { allow, invoices });
+  moneyRoutes(r, { allow, money });
+  paymentsWebhookRoutes(r, { webhook });
   capacityRoutes(r, { allow, capacity });
   scheduleRoutes(r, { allow, schedule });
   calendarFeedRoutes(r, { allow, calendarFeed });
@@ -297,11 +354,16 @@ export async function createApp(config: Config) {
   const jobs = {
     deliverMail: () => mailer.deliverDue(),
     pruneLoginFailures: () => auth.pruneFailures(),
+    /** e-mails each overdue invoice's next reminder once (idempotent) */
+    sendInvoiceReminders: () => invoices.sendReminders(),
+    /** sent quotes past their validity become expired */
+    expireQuotes: () => quotes.expireDue(),
   };
   const timers: NodeJS.Timeout[] = [];
   if (config.runJobs) {
     timers.push(setInterval(() => mailer.kick(), 15_000).unref());
     timers.push(setInterval(() => void jobs.pruneLoginFailures().catch(() => undefined), 3600_000).unref());
+    timers.push(setInterval(() => void jobs.expireQuotes().then(() => jobs.sendInvoiceReminders()).catch((err) => log.error({ err }, 'money jobs failed')), 3600_000).unref());
     mailer.kick();
   }
 

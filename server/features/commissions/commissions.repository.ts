@@ -57,6 +57,8 @@ export function commissionsRepository(db: Db) {
     },
     get: (studioId: number, id: number, trx: Db = db) => base(trx, studioId).where('c.id', id).first(columns) as Promise<CommissionRow | undefined>,
     update: (trx: Db, studioId: number, id: number, patch: Record<string, unknown>) => trx('commissions').where({ studio_id: studioId, id }).update(patch),
+    lastQueuePosition: (studioId: number, trx: Db = db) =>
+      trx('commissions').where({ studio_id: studioId }).max({ p: 'queue_position' }).first().then((r) => Number(r?.p ?? 0)),
 
     /**
      * One page with each commission's figure count and stage totals, in one query (aggregates joined as

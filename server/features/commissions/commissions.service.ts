@@ -25,6 +25,9 @@ import type { CommissionListRow, CommissionRow, CommissionsRepository } from './
 
 const num = (v: number | string | null | undefined) => Number(v ?? 0);
 
+/** Called inside the transaction of a status change, after it is written and logged. */
+export type StatusChangeHook = (trx: Db, change: { studioId: number; commissionId: number; userId: number | null; from: CommissionStatus; to: CommissionStatus }) => Promise<void>;
+
 function summaryOf(r: CommissionRow, totals: ProgressTotals, figureCount: number, modelCount: number): CommissionSummary {
   return {
     id: r.id,
@@ -52,6 +55,7 @@ const listTotals = (r: CommissionListRow): ProgressTotals => ({
 export function commissionsService(deps: { db: Db; repo: CommissionsRepository; figures: FiguresService; activity: ActivityService; clock: Clock }) {
   const { db, repo, figures, activity, clock } = deps;
   const now = () => iso(clock.now());
+  const statusHooks: StatusChangeHook[] = [];
 
   /** The commission if the actor may see it: the studio's team sees all, a client only their own (else 404). */
   async function visible(actor: Actor, id: number, trx: Db = db) {
@@ -80,6 +84,7 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
       action: 'commission.status',
       detail: { from: row.status, to, ...(reason ? { reason } : {}) },
     });
+    for (const hook of statusHooks) await hook(trx, { studioId: by.studioId, commissionId: id, userId: by.userId, from: row.status, to });
   }
 
   async function detail(actor: Actor, id: number): Promise<CommissionDetail> {
@@ -180,6 +185,20 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
 
     /** The same move inside another feature's transaction (e.g. an approved "finished" → ready to ship). */
     transitionIn,
+
+    /** Registers a hook run inside the transaction of every status change (e.g. invoicing on ready to ship). */
+    onStatusChange(hook: StatusChangeHook) {
+      statusHooks.push(hook);
+    },
+
+    /** Quoted → booked at the end of the studio's queue (its deposit is paid), inside the caller's transaction; any other status stays. */
+    async bookIfQuoted(trx: Db, by: { studioId: number; userId: number | null }, id: number) {
+      const row = await repo.get(by.studioId, id, trx);
+      if (row?.status !== 'quoted') return false;
+      await transitionIn(trx, by, id, 'booked');
+      await repo.update(trx, by.studioId, id, { queue_position: (await repo.lastQueuePosition(by.studioId, trx)) + 1 });
+      return true;
+    },
 
     async activity(actor: Actor, id: number) {
       await visible(actor, id);

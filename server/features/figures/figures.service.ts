@@ -228,9 +228,23 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
     return { f, c };
   }
 
+  /**
+   * Sets a figure's stage estimates from whole-batch minutes per stage key (an accepted quote's hours), inside
+   * the caller's transaction; stages the minutes do not name keep theirs.
+   */
+  async function setStageEstimates(trx: Db, studioId: number, figureId: number, minutes: Record<string, number>) {
+    const t = now();
+    for (const s of await repo.stagesOfFigure(studioId, figureId, trx)) {
+      const m = minutes[s.template_key];
+      if (m === undefined || Math.round(m) === s.estimate_minutes) continue;
+      await repo.updateStage(trx, studioId, s.id, { estimate_minutes: Math.max(0, Math.round(m)), updated_at: t });
+    }
+  }
+
   return {
     addInTransaction,
     copyStages,
+    setStageEstimates,
     views,
     view,
     stageContext,

@@ -1,0 +1,285 @@
+import type { CommissionStatus } from '../../../shared/commission-lifecycle';
+import type { InvoiceKind, InvoiceLine, InvoiceListQuery, InvoiceStatus, PaymentMethod } from '../../../shared/schemas/invoices';
+import type { Db } from '../../lib/db';
+
+export type InvoiceRow = {
+  id: number;
+  studio_id: number;
+  commission_id: number;
+  commission_title: string;
+  client_id: number;
+  client_name: string;
+  quote_id: number | null;
+  credit_for: number | null;
+  kind: InvoiceKind;
+  status: InvoiceStatus;
+  number: string | null;
+  currency: string;
+  lines: InvoiceLine[];
+  tax_inclusive: boolean;
+  tax_label: string;
+  tax_id: string;
+  subtotal: number;
+  tax: number;
+  total: number;
+  paid: number;
+  refunded: number;
+  credited: number;
+  note: string | null;
+  issued_at: string | null;
+  due_date: string | null;
+  created_at: string;
+};
+
+export type PaymentRow = {
+  id: number;
+  invoice_id: number;
+  method: PaymentMethod;
+  amount: number;
+  refunded: number;
+  received_at: string;
+  reference: string | null;
+  checkout_id: number | null;
+  payment_intent_id: string | null;
+};
+
+export type CheckoutRow = {
+  id: number;
+  studio_id: number;
+  invoice_id: number;
+  session_id: string;
+  url: string;
+  amount: number;
+  currency: string;
+  status: 'open' | 'paid' | 'flagged';
+  created_at: string;
+};
+
+export type IssueRow = { id: string; invoice_id: number | null; invoice_number: string | null; session_id: string | null; reason: string | null; received_at: string };
+
+const n = (v: unknown) => Number(v ?? 0);
+const insertedId = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
+
+const invoiceColumns = [
+  'i.id',
+  'i.studio_id',
+  'i.commission_id',
+  'c.title as commission_title',
+  'i.client_id',
+  'cl.name as client_name',
+  'i.quote_id',
+  'i.credit_for',
+  'i.kind',
+  'i.status',
+  'i.number',
+  'i.currency',
+  'i.lines_json',
+  'i.tax_inclusive',
+  'i.tax_label',
+  'i.tax_id',
+  'i.subtotal',
+  'i.tax',
+  'i.total',
+  'i.paid',
+  'i.refunded',
+  'i.credited',
+  'i.note',
+  'i.issued_at',
+  'i.due_date',
+  'i.created_at',
+];
+
+function toRow(r: Record<string, unknown>): InvoiceRow {
+  const { lines_json, ...rest } = r;
+  return {
+    ...(rest as Omit<InvoiceRow, 'lines'>),
+    lines: JSON.parse(String(lines_json)),
+    tax_inclusive: Boolean(r.tax_inclusive),
+    subtotal: n(r.subtotal),
+    tax: n(r.tax),
+    total: n(r.total),
+    paid: n(r.paid),
+    refunded: n(r.refunded),
+    credited: n(r.credited),
+  };
+}
+
+const toPayment = (r: Record<string, unknown>): PaymentRow => ({ ...(r as PaymentRow), amount: n(r.amount), refunded: n(r.refunded) });
+
+/** Invoices, their payments, refunds, checkouts and reminders; every studio query takes the studio id first. */
+export function invoicesRepository(db: Db) {
+  const base = (trx: Db, studioId: number) =>
+    trx('invoices as i').join('commissions as c', 'c.id', 'i.commission_id').join('clients as cl', 'cl.id', 'i.client_id').where('i.studio_id', studioId);
+
+  return {
+    studio: (studioId: number, trx: Db = db) =>
+      trx('studios').where({ id: studioId }).first('id', 'name', 'timezone', 'currency') as Promise<{ id: number; name: string; timezone: string; currency: string } | undefined>,
+    commission: (studioId: number, commissionId: number, trx: Db = db) =>
+      trx('commissions as c')
+        .join('clients as cl', 'cl.id', 'c.client_id')
+        .where({ 'c.studio_id': studioId, 'c.id': commissionId })
+        .first('c.id', 'c.title', 'c.status', 'c.status_before_hold', 'c.client_id', 'cl.name as client_name') as Promise<
+        { id: number; title: string; status: CommissionStatus; status_before_hold: CommissionStatus | null; client_id: number; client_name: string } | undefined
+      >,
+    /** The client's address for invoices and receipts: the record's e-mail, else their account's. */
+    clientContact: (studioId: number, clientId: number, trx: Db = db) =>
+      trx('clients as cl')
+        .leftJoin('users as u', 'u.id', 'cl.user_id')
+        .where({ 'cl.studio_id': studioId, 'cl.id': clientId })
+        .first(
+          'cl.id',
+          'cl.name',
+          trx.raw('coalesce(cl.email, u.email) as email'),
+          'cl.address_line1',
+          'cl.address_line2',
+          'cl.address_city',
+          'cl.address_region',
+          'cl.address_postal_code',
+          'cl.address_country',
+        ) as Promise<
+        | {
+            id: number;
+            name: string;
+            email: string | null;
+            address_line1: string | null;
+            address_line2: string | null;
+            address_city: string | null;
+            address_region: string | null;
+            address_postal_code: string | null;
+            address_country: string | null;
+          }
+        | undefined
+      >,
+    /** Owners who take e-mail notices: they hear about payments. */
+    owners: (studioId: number, trx: Db = db) =>
+      trx('memberships as m')
+        .join('users as u', 'u.id', 'm.user_id')
+        .where({ 'm.studio_id': studioId, 'm.role': 'owner', 'u.email_notices': true })
+        .orderBy('u.id')
+        .select('u.id', 'u.email', 'u.name') as Promise<{ id: number; email: string; name: string }[]>,
+
+    /** The next number of the studio's year, inside the caller's transaction (the row stays locked until it commits). */
+    async nextNumber(trx: Db, studioId: number, year: number) {
+      await trx('invoice_counters').insert({ studio_id: studioId, year, last: 0 }).onConflict(['studio_id', 'year']).ignore();
+      await trx('invoice_counters').where({ studio_id: studioId, year }).increment('last', 1);
+      const row = await trx('invoice_counters').where({ studio_id: studioId, year }).first('last');
+      return n(row?.last);
+    },
+
+    async insert(trx: Db, row: Record<string, unknown>) {
+      const [r] = await trx('invoices').insert(row).returning('id');
+      return insertedId(r);
+    },
+    update: (trx: Db, studioId: number, id: number, patch: Record<string, unknown>) => trx('invoices').where({ studio_id: studioId, id }).update(patch),
+    async get(studioId: number, id: number, trx: Db = db) {
+      const r = await base(trx, studioId).where('i.id', id).first(invoiceColumns);
+      return r ? toRow(r) : undefined;
+    },
+    async ofCommission(studioId: number, commissionId: number, trx: Db = db) {
+      return (await base(trx, studioId).where('i.commission_id', commissionId).orderBy('i.id').select(invoiceColumns)).map(toRow);
+    },
+    async list(studioId: number, q: InvoiceListQuery & { onlyClientId?: number; hideDrafts?: boolean }) {
+      const filter = (qb: ReturnType<typeof base>) => {
+        if (q.onlyClientId !== undefined) qb.where('i.client_id', q.onlyClientId);
+        if (q.hideDrafts) qb.whereNot('i.status', 'draft');
+        if (q.status) qb.where('i.status', q.status);
+        if (q.kind) qb.where('i.kind', q.kind);
+        if (q.clientId) qb.where('i.client_id', q.clientId);
+        if (q.commissionId) qb.where('i.commission_id', q.commissionId);
+        if (q.q) {
+          const like = `%${q.q.toLowerCase().replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`;
+          qb.where((w) =>
+            w
+              .whereRaw("lower(i.number) like ? escape '\\'", [like])
+              .orWhereRaw("lower(cl.name) like ? escape '\\'", [like])
+              .orWhereRaw("lower(c.title) like ? escape '\\'", [like]),
+          );
+        }
+        return qb;
+      };
+      const [rows, count] = await Promise.all([
+        filter(base(db, studioId))
+          .select(invoiceColumns)
+          .orderBy([{ column: 'i.created_at', order: 'desc' }, { column: 'i.id', order: 'desc' }])
+          .limit(q.limit)
+          .offset(q.offset),
+        filter(base(db, studioId)).count({ n: '*' }).first(),
+      ]);
+      return { rows: rows.map(toRow), total: n(count?.n) };
+    },
+    /** Issued invoices (credit notes included) whose issue time falls in [from, to), for the accountant's export. */
+    async issuedBetween(studioId: number, from: string | null, to: string | null) {
+      const qb = base(db, studioId).whereNotNull('i.issued_at').select(invoiceColumns).orderBy('i.issued_at').orderBy('i.id');
+      if (from) qb.where('i.issued_at', '>=', from);
+      if (to) qb.where('i.issued_at', '<', to);
+      return (await qb).map(toRow);
+    },
+
+    async payments(studioId: number, invoiceIds: number[], trx: Db = db) {
+      if (!invoiceIds.length) return [];
+      return (await trx('invoice_payments').where('studio_id', studioId).whereIn('invoice_id', invoiceIds).orderBy('received_at').orderBy('id')).map(toPayment);
+    },
+    async insertPayment(trx: Db, row: Record<string, unknown>) {
+      const [r] = await trx('invoice_payments').insert(row).returning('id');
+      return insertedId(r);
+    },
+    addPaymentRefund: (trx: Db, studioId: number, paymentId: number, amount: number) => trx('invoice_payments').where({ studio_id: studioId, id: paymentId }).increment('refunded', amount),
+    insertRefund: (trx: Db, row: Record<string, unknown>) => trx('invoice_refunds').insert(row),
+
+    async insertCheckout(trx: Db, row: Record<string, unknown>) {
+      const [r] = await trx('checkouts').insert(row).returning('id');
+      return insertedId(r);
+    },
+    checkoutsOf: (studioId: number, invoiceId: number, trx: Db = db) =>
+      trx('checkouts').where({ studio_id: studioId, invoice_id: invoiceId }).orderBy('id', 'desc').then((rows) => rows.map((r) => ({ ...r, amount: n(r.amount) }) as CheckoutRow)),
+    checkoutBySession: (sessionId: string, trx: Db = db) =>
+      trx('checkouts')
+        .where({ session_id: sessionId })
+        .first()
+        .then((r) => (r ? ({ ...r, amount: n(r.amount) } as CheckoutRow) : undefined)),
+    updateCheckout: (trx: Db, id: number, patch: Record<string, unknown>) => trx('checkouts').where({ id }).update(patch),
+
+    /** Verified events that did not match a checkout, per invoice (for the owner). */
+    async issues(studioId: number, invoiceIds?: number[]): Promise<IssueRow[]> {
+      const qb = db('payment_events as e')
+        .leftJoin('invoices as i', 'i.id', 'e.invoice_id')
+        .where({ 'e.studio_id': studioId, 'e.outcome': 'flagged' })
+        .orderBy('e.received_at', 'desc')
+        .select('e.id', 'e.invoice_id', 'i.number as invoice_number', 'e.session_id', 'e.reason', 'e.received_at');
+      if (invoiceIds) qb.whereIn('e.invoice_id', invoiceIds);
+      return qb;
+    },
+
+    /** Minutes of the commission's done stages (their estimates): the work a cancellation keeps. */
+    doneStageMinutes: (studioId: number, commissionId: number, trx: Db = db) =>
+      trx('stages').where({ studio_id: studioId, commission_id: commissionId, status: 'done' }).sum({ m: 'estimate_minutes' }).first().then((r) => n(r?.m)),
+
+    /** Open invoices with a due date across all studios, with the studio's zone and how many reminders went out. */
+    async dueForReminder(before: string) {
+      const rows = await db('invoices as i')
+        .join('studios as s', 's.id', 'i.studio_id')
+        .whereIn('i.status', ['open', 'partly_paid'])
+        .whereNot('i.kind', 'credit_note')
+        .whereNotNull('i.due_date')
+        .where('i.due_date', '<', before)
+        .select('i.id', 'i.studio_id', 'i.due_date', 's.timezone');
+      const ids = rows.map((r) => r.id as number);
+      const sent = (ids.length ? await db('invoice_reminders').whereIn('invoice_id', ids).groupBy('invoice_id').select('invoice_id').count({ c: '*' }).max({ last: 'sent_at' }) : []) as unknown as {
+        invoice_id: number;
+        c: number | string;
+        last: string;
+      }[];
+      const byId = new Map(sent.map((s) => [s.invoice_id as number, { count: n(s.c), last: String(s.last) }]));
+      return rows.map((r) => ({ id: r.id as number, studioId: r.studio_id as number, dueDate: String(r.due_date), timezone: String(r.timezone), sent: byId.get(r.id)?.count ?? 0, lastSentAt: byId.get(r.id)?.last ?? null }));
+    },
+    /** Claims reminder `number` of an invoice; false when it was claimed already (by another run). */
+    async claimReminder(trx: Db, invoiceId: number, number: number, at: string) {
+      const done = await trx('invoice_reminders').where({ invoice_id: invoiceId, number }).first('invoice_id');
+      if (done) return false;
+      await trx('invoice_reminders').insert({ invoice_id: invoiceId, number, sent_at: at });
+      return true;
+    },
+  };
+}
+
+export type InvoicesRepository = ReturnType<typeof invoicesRepository>;

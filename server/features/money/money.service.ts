@@ -1,0 +1,52 @@
+import { civilDate, dayNumber, localDateOf, localDayOf, zonedInstant } from '../../../shared/dates';
+import type { MoneyView } from '../../../shared/schemas/invoices';
+import type { PriceTableService } from '../price-table/price-table.service';
+import type { Clock } from '../../lib/clock';
+import { errors } from '../../lib/errors';
+import type { MoneyRepository } from './money.repository';
+
+/** The owner's money view: what is owed by whom, what came in this month, deposits held for work not begun. */
+export function moneyService(deps: { repo: MoneyRepository; priceTables: Pick<PriceTableService, 'get'>; clock: Clock }) {
+  const { repo, priceTables, clock } = deps;
+  return {
+    async view(studioId: number): Promise<MoneyView> {
+      const s = await repo.studio(studioId);
+      if (!s) throw errors.notFound('That studio');
+      const currency = (await priceTables.get(studioId)).currency;
+      const nowMs = clock.now().getTime();
+      const today = localDateOf(nowMs, s.timezone);
+      // The calendar month in the studio's timezone, as UTC instants (stored times are UTC ISO strings).
+      const d = civilDate(localDayOf(nowMs, s.timezone));
+      const from = new Date(zonedInstant(dayNumber(d.year, d.month, 1), 0, s.timezone)).toISOString();
+      const to = new Date(zonedInstant(dayNumber(d.month === 12 ? d.year + 1 : d.year, d.month === 12 ? 1 : d.month + 1, 1), 0, s.timezone)).toISOString();
+
+      const byClient = new Map<string, MoneyView['outstandingByClient'][number]>();
+      const unpaid = await repo.unpaid(studioId);
+      for (const u of unpaid) {
+        const key = `${u.clientId}:${u.currency}`;
+        const e = byClient.get(key) ?? { client: { id: u.clientId, name: u.clientName }, currency: u.currency, outstandingMinor: 0, invoices: 0, overdue: 0 };
+        e.outstandingMinor += u.due;
+        e.invoices++;
+        if (u.dueDate && u.dueDate < today && u.due > 0) e.overdue++;
+        byClient.set(key, e);
+      }
+      const [paid, refunded, held, issues] = await Promise.all([
+        repo.paymentsBetween(studioId, currency, from, to),
+        repo.refundsBetween(studioId, currency, from, to),
+        repo.depositsHeld(studioId, currency, ['quoted', 'booked']),
+        repo.issues(studioId),
+      ]);
+      return {
+        currency,
+        outstandingByClient: [...byClient.values()].sort((a, b) => b.outstandingMinor - a.outstandingMinor || a.client.name.localeCompare(b.client.name)),
+        paidThisMonthMinor: paid - refunded,
+        depositsHeldMinor: held,
+        openInvoices: unpaid.length,
+        overdueInvoices: unpaid.filter((u) => u.dueDate && u.dueDate < today && u.due > 0).length,
+        paymentIssues: issues.map((i) => ({ eventId: i.id, at: i.received_at, sessionId: i.session_id, reason: i.reason ?? '', invoiceId: i.invoice_id, invoiceNumber: i.invoice_number })),
+      };
+    },
+  };
+}
+
+export type MoneyService = ReturnType<typeof moneyService>;
