@@ -106,6 +106,29 @@ const table: Row[] = [
   ['PATCH', '/api/studios/:studioId/scheme-entries/:schemeEntryId', 401, 200, 200, 403, 404],
   ['GET', '/api/studios/:studioId/reference-photos/:referencePhotoId/palette', 401, 200, 200, 403, 404],
   ['GET', '/api/studios/:studioId/reference-photos/:referencePhotoId/point', 401, 400, 400, 403, 404],
+  // Public page, enquiries, models in, shipping (issue 7). The page of studio A is on; a visitor's enquiry has one photo;
+  // the table commission has its shipment started (still packing, so its client does not see it yet).
+  ['GET', '/api/public/studios/:slug', 200, 200, 200, 200, 200],
+  ['POST', '/api/public/studios/:slug/enquiries', 400, 400, 400, 400, 400],
+  ['GET', '/api/studios/:studioId/public-page', 401, 200, 403, 403, 404],
+  ['PUT', '/api/studios/:studioId/public-page', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/enquiries', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/enquiries/:enquiryId', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/enquiries/:enquiryId/photos/:enquiryPhotoId/:size', 401, 200, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/enquiries/:enquiryId/decline', 401, 400, 403, 403, 404],
+  // The owner's accept decides the enquiry; no row after this one uses it.
+  ['POST', '/api/studios/:studioId/enquiries/:enquiryId/accept', 401, 201, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/models-in', 401, 200, 200, 403, 404],
+  ['PUT', '/api/studios/:studioId/commissions/:commissionId/models-in', 401, 400, 400, 403, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/models-in/notice', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/shipping-settings', 401, 200, 200, 403, 404],
+  ['PUT', '/api/studios/:studioId/shipping-settings', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/shipments', 401, 200, 200, 200, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/shipments', 401, 409, 403, 403, 404],
+  ['PATCH', '/api/studios/:studioId/commissions/:commissionId/shipments/:shipmentId', 401, 200, 200, 403, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/shipments/:shipmentId/ship', 401, 400, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/shipments/:shipmentId/delivered', 401, 400, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/shipments/:shipmentId/received', 401, 403, 403, 404, 404],
   // Deletions run last among these rows: the owner's call removes the record, so the painter after it meets 404.
   ['DELETE', '/api/studios/:studioId/time/:entryId', 401, 204, 404, 403, 404],
   ['DELETE', '/api/studios/:studioId/figures/:figureId', 401, 204, 403, 403, 404],
@@ -144,6 +167,22 @@ beforeAll(async () => {
   const scheme = await a.owner.post(`${A}/commissions/${ids.commissionId}/scheme`, { area: 'Trousers', recipeId: recipe.body.id });
   const reference = await upload(a.client, `${A}/commissions/${ids.commissionId}/photos`, [{ data: await images.twoTone(64, 48), name: 'ref.jpg' }], { kind: 'reference' });
   Object.assign(ids, { paintId: String(paint.body.id), recipeId: String(recipe.body.id), schemeEntryId: String(scheme.body.entries[0].id), referencePhotoId: String(reference.body[0].id) });
+  // Issue 7: studio A's public page on, a visitor's enquiry with a photo, and the table commission's shipment started.
+  await a.owner.put(`${A}/public-page`, { enabled: true, turnaroundSource: 'text' });
+  const slug = (await sw.db('studios').where({ id: a.studioId }).first('slug')).slug as string;
+  const visitor = new Caller(sw.app);
+  await visitor.csrf();
+  const sent = await upload(visitor, `/api/public/studios/${slug}/enquiries`, [{ data: await images.twoTone(64, 48), name: 'wish.jpg' }], {
+    name: 'Route Visitor',
+    email: 'visitor@route.test',
+    figures: JSON.stringify([{ name: 'Table wish', quantity: 1, sizeClass: '28' }]),
+    consent: 'true',
+  });
+  if (sent.status !== 201) throw new Error(JSON.stringify(sent.body));
+  const enquiry = await sw.db('enquiries').where({ studio_id: a.studioId }).first('id');
+  const enquiryPhoto = await sw.db('enquiry_photos').where({ enquiry_id: enquiry.id }).first('id');
+  const shipment = await a.owner.post(`${A}/commissions/${ids.commissionId}/shipments`, {});
+  Object.assign(ids, { slug, enquiryId: String(enquiry.id), enquiryPhotoId: String(enquiryPhoto.id), shipmentId: String(shipment.body.id) });
 });
 afterAll(() => sw.stop());
 
