@@ -2,8 +2,11 @@ import { DEMO_PASSWORD } from '../server/config';
 import { iso, type Clock } from '../server/lib/clock';
 import type { Db } from '../server/lib/db';
 import type { StudiosService } from '../server/features/studios/studios.service';
+import type { FileStorage } from '../server/lib/storage/storage';
 import { commissionsDemo } from './demo-commissions';
+import { enquiriesDemo } from './demo-enquiries';
 import { paintsDemo } from './demo-paints';
+import { photosDemo } from './demo-photos';
 
 /**
  * The demo scenario: an invented studio, its people and clients. Every name here is made up
@@ -15,13 +18,17 @@ export type DemoContext = {
   studioId: number;
   users: { owner: number; painter: number; client: number; client2: number };
   clients: { client: number; client2: number; walkIn: number };
+  /** Where demo photos are written (the app's photo storage). */
+  photoStorage?: FileStorage;
 };
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
 export const demoSteps: DemoStep[] = [];
 demoSteps.push(commissionsDemo);
+demoSteps.push(enquiriesDemo);
 demoSteps.push(paintsDemo);
+demoSteps.push(photosDemo);
 
-export async function seedDemo(db: Db, deps: { clock: Clock; hash: (p: string) => Promise<string>; studios: StudiosService }) {
+export async function seedDemo(db: Db, deps: { clock: Clock; hash: (p: string) => Promise<string>; studios: StudiosService; photoStorage?: FileStorage }) {
   const now = iso(deps.clock.now());
   const passwordHash = await deps.hash(DEMO_PASSWORD);
   const user = async (email: string, name: string) => {
@@ -76,6 +83,7 @@ export async function seedDemo(db: Db, deps: { clock: Clock; hash: (p: string) =
     studioId,
     users: { owner, painter, client: clientUser, client2: client2User },
     clients: { client: c1, client2: c2, walkIn },
+    photoStorage: deps.photoStorage,
   };
   for (const step of demoSteps) await step(ctx);
   return ctx;

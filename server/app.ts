@@ -222,7 +222,7 @@ export async function createApp(config: Config) {
   const money = moneyService({ repo: moneyRepository(db), priceTables, clock: config.clock });
 
   if (config.demo && !(await db('studios').first('id'))) {
-    await seedDemo(db, { clock: config.clock, hash: auth.hash, studios });
+    await seedDemo(db, { clock: config.clock, hash: auth.hash, studios, photoStorage: storage });
     log.info('demo scenario loaded');
   }
 
