@@ -5,7 +5,6 @@ import type { StudiosService } from '../server/features/studios/studios.service'
 import type { FileStorage } from '../server/lib/storage/storage';
 import { commissionsDemo } from './demo-commissions';
 import { enquiriesDemo } from './demo-enquiries';
-import { enquiriesDemo } from './demo-enquiries';
 import { paintsDemo } from './demo-paints';
 import { photosDemo } from './demo-photos';
 
@@ -25,7 +24,6 @@ export type DemoContext = {
 export type DemoStep = (ctx: DemoContext) => Promise<void>;
 export const demoSteps: DemoStep[] = [];
 demoSteps.push(commissionsDemo);
-demoSteps.push(enquiriesDemo);
 demoSteps.push(enquiriesDemo);
 demoSteps.push(paintsDemo);
 demoSteps.push(photosDemo);
