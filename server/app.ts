@@ -285,7 +285,8 @@ export async function createApp(config: Config) {
   });
 
   const csrf: RequestHandler = (req, _res, next) => {
-    if (!UNSAFE.has(req.method) || CSRF_EXEMPT.has(req.path)) return next();
+    // mounted under /api, so req.path lacks the prefix the exempt list is written with
+    if (!UNSAFE.has(req.method) || CSRF_EXEMPT.has(req.baseUrl + req.path)) return next();
     const sent = req.get('x-csrf-token');
     const expected = req.session?.csrf;
     if (!sent || !expected || !safeEqual(sent, expected)) throw errors.csrf();
