@@ -101,6 +101,18 @@ import { paymentsWebhookService } from './features/payments-webhook/payments-web
 import { moneyRepository } from './features/money/money.repository';
 import { moneyRoutes } from './features/money/money.routes';
 import { moneyService } from './features/money/money.service';
+import { enquiriesRepository } from './features/enquiries/enquiries.repository';
+import { enquiriesRoutes } from './features/enquiries/enquiries.routes';
+import { enquiriesService } from './features/enquiries/enquiries.service';
+import { modelsInRepository } from './features/models-in/models-in.repository';
+import { modelsInRoutes } from './features/models-in/models-in.routes';
+import { modelsInService } from './features/models-in/models-in.service';
+import { publicStudioRepository } from './features/public-studio/public-studio.repository';
+import { publicStudioRoutes } from './features/public-studio/public-studio.routes';
+import { publicStudioService } from './features/public-studio/public-studio.service';
+import { shipmentsRepository } from './features/shipments/shipments.repository';
+import { shipmentsRoutes } from './features/shipments/shipments.routes';
+import { shipmentsService } from './features/shipments/shipments.service';
 import { loginInput } from '../shared/schemas/auth';
 import { seedDemo } from '../seeds/demo';
 
@@ -221,6 +233,14 @@ export async function createApp(config: Config) {
   const webhook = paymentsWebhookService({ db, repo: paymentEventsRepository(db), payments, invoices, clock: config.clock });
   const money = moneyService({ repo: moneyRepository(db), priceTables, clock: config.clock });
 
+  // Both ends of a commission: the public page and its enquiries (one photo decoded at a time for visitors),
+  // the models received, packing and shipping. The move to shipped waits for the balance, however it is asked for.
+  const enquiries = enquiriesService({ db, repo: enquiriesRepository(db), lists: setup, commissions, invitations, activity, storage, limiter: createLimiter(1, 10), mailer, clock: config.clock, publicUrl: config.publicUrl });
+  const publicStudio = publicStudioService({ repo: publicStudioRepository(db), clock: config.clock, lists: setup, prices: priceTables, schedule, enquiries });
+  const modelsIn = modelsInService({ db, repo: modelsInRepository(db), activity, mailer, clock: config.clock, publicUrl: config.publicUrl });
+  const shipments = shipmentsService({ db, repo: shipmentsRepository(db), commissions, activity, mailer, clock: config.clock, publicUrl: config.publicUrl });
+  commissions.guardStatusChange((trx, change) => shipments.shippedGuard(trx, change));
+
   if (config.demo && !(await db('studios').first('id'))) {
     await seedDemo(db, { clock: config.clock, hash: auth.hash, studios, photoStorage: storage });
     log.info('demo scenario loaded');
@@ -322,6 +342,10 @@ export async function createApp(config: Config) {
   recipesRoutes(r, { allow, recipes });
   schemesRoutes(r, { allow, schemes });
   paletteRoutes(r, { allow, palette });
+  publicStudioRoutes(r, { allow, publicStudio });
+  enquiriesRoutes(r, { allow, enquiries });
+  modelsInRoutes(r, { allow, modelsIn });
+  shipmentsRoutes(r, { allow, shipments });
 
   // The payment webhook needs the exact bytes for its signature check, so it is parsed raw, before JSON.
   app.use('/api/webhooks/payments', express.raw({ type: () => true, limit: '1mb' }));
@@ -355,6 +379,9 @@ export async function createApp(config: Config) {
   const jobs = {
     deliverMail: () => mailer.deliverDue(),
     pruneLoginFailures: () => auth.pruneFailures(),
+    /** closes commissions still "shipped" their studio's number of days after the parcel left (idempotent) */
+    autoCloseShipped: () => shipments.autoCloseShipped(),
+    prunePublicAttempts: () => publicStudio.pruneAttempts(),
     /** e-mails each overdue invoice's next reminder once (idempotent) */
     sendInvoiceReminders: () => invoices.sendReminders(),
     /** sent quotes past their validity become expired */
@@ -364,6 +391,7 @@ export async function createApp(config: Config) {
   if (config.runJobs) {
     timers.push(setInterval(() => mailer.kick(), 15_000).unref());
     timers.push(setInterval(() => void jobs.pruneLoginFailures().catch(() => undefined), 3600_000).unref());
+    timers.push(setInterval(() => void jobs.autoCloseShipped().then(() => jobs.prunePublicAttempts()).catch((err) => log.error({ err }, 'shipping jobs failed')), 3600_000).unref());
     timers.push(setInterval(() => void jobs.expireQuotes().then(() => jobs.sendInvoiceReminders()).catch((err) => log.error({ err }, 'money jobs failed')), 3600_000).unref());
     mailer.kick();
   }

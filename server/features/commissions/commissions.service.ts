@@ -28,6 +28,16 @@ const num = (v: number | string | null | undefined) => Number(v ?? 0);
 /** Called inside the transaction of a status change, after it is written and logged. */
 export type StatusChangeHook = (trx: Db, change: { studioId: number; commissionId: number; userId: number | null; from: CommissionStatus; to: CommissionStatus }) => Promise<void>;
 
+/**
+ * Called inside the transaction of a status change before it is written: throws to refuse the move
+ * (e.g. shipping while the balance is unpaid). `override` is the owner's reason to go ahead anyway;
+ * what the guard returns joins the status entry of the activity log.
+ */
+export type StatusChangeGuard = (
+  trx: Db,
+  change: { studioId: number; commissionId: number; userId: number | null; from: CommissionStatus; to: CommissionStatus; override: { reason: string } | null },
+) => Promise<Record<string, unknown> | void>;
+
 function summaryOf(r: CommissionRow, totals: ProgressTotals, figureCount: number, modelCount: number): CommissionSummary {
   return {
     id: r.id,
@@ -56,6 +66,7 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
   const { db, repo, figures, activity, clock } = deps;
   const now = () => iso(clock.now());
   const statusHooks: StatusChangeHook[] = [];
+  const statusGuards: StatusChangeGuard[] = [];
 
   /** The commission if the actor may see it: the studio's team sees all, a client only their own (else 404). */
   async function visible(actor: Actor, id: number, trx: Db = db) {
@@ -64,12 +75,14 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
     return row;
   }
 
-  async function transitionIn(trx: Db, by: { studioId: number; userId: number | null }, id: number, to: CommissionStatus, reason?: string) {
+  async function transitionIn(trx: Db, by: { studioId: number; userId: number | null }, id: number, to: CommissionStatus, reason?: string, opts: { override?: { reason: string } } = {}) {
     const row = await repo.get(by.studioId, id, trx);
     if (!row) throw errors.notFound('That commission');
     const allowed = allowedTransitions(row.status, row.status_before_hold);
     if (!allowed.includes(to)) throw errors.conflict(refusedTransitionMessage(row.status, to, row.status_before_hold), 'invalid_transition', { allowed });
     if (to === 'cancelled' && !reason) throw errors.field('reason', 'Give a reason for cancelling.');
+    const guarded: Record<string, unknown> = {};
+    for (const guard of statusGuards) Object.assign(guarded, await guard(trx, { studioId: by.studioId, commissionId: id, userId: by.userId, from: row.status, to, override: opts.override ?? null }));
     await repo.update(trx, by.studioId, id, {
       status: to,
       // On hold remembers where it came from, so it can go back there.
@@ -82,7 +95,7 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
       commissionId: id,
       userId: by.userId,
       action: 'commission.status',
-      detail: { from: row.status, to, ...(reason ? { reason } : {}) },
+      detail: { from: row.status, to, ...(reason ? { reason } : {}), ...guarded },
     });
     for (const hook of statusHooks) await hook(trx, { studioId: by.studioId, commissionId: id, userId: by.userId, from: row.status, to });
   }
@@ -189,6 +202,11 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
     /** Registers a hook run inside the transaction of every status change (e.g. invoicing on ready to ship). */
     onStatusChange(hook: StatusChangeHook) {
       statusHooks.push(hook);
+    },
+
+    /** Registers a guard every status change passes first, however it is asked for (the shipped-while-unpaid rule). */
+    guardStatusChange(guard: StatusChangeGuard) {
+      statusGuards.push(guard);
     },
 
     /** Quoted → booked at the end of the studio's queue (its deposit is paid), inside the caller's transaction; any other status stays. */
