@@ -74,6 +74,12 @@ import { scheduleService } from './features/schedule/schedule.service';
 import { calendarFeedRepository } from './features/calendar-feed/calendar-feed.repository';
 import { calendarFeedRoutes } from './features/calendar-feed/calendar-feed.routes';
 import { calendarFeedService } from './features/calendar-feed/calendar-feed.service';
+import { reportsRepository } from './features/reports/reports.repository';
+import { reportsRoutes } from './features/reports/reports.routes';
+import { reportsService } from './features/reports/reports.service';
+import { dashboardRepository } from './features/dashboard/dashboard.repository';
+import { dashboardRoutes } from './features/dashboard/dashboard.routes';
+import { dashboardService } from './features/dashboard/dashboard.service';
 import { paintsRepository } from './features/paints/paints.repository';
 import { paintsRoutes } from './features/paints/paints.routes';
 import { paintsService } from './features/paints/paints.service';
@@ -232,6 +238,9 @@ export async function createApp(config: Config) {
   });
   const webhook = paymentsWebhookService({ db, repo: paymentEventsRepository(db), payments, invoices, clock: config.clock });
   const money = moneyService({ repo: moneyRepository(db), priceTables, clock: config.clock });
+  // The books (actuals against estimates, earnings net of costs) and each role's home page.
+  const reports = reportsService({ repo: reportsRepository(db), priceTables, clock: config.clock });
+  const dashboard = dashboardService({ repo: dashboardRepository(db), schedule, reports });
 
   // Both ends of a commission: the public page and its enquiries (one photo decoded at a time for visitors),
   // the models received, packing and shipping. The move to shipped waits for the balance, however it is asked for.
@@ -338,6 +347,8 @@ export async function createApp(config: Config) {
   capacityRoutes(r, { allow, capacity });
   scheduleRoutes(r, { allow, schedule });
   calendarFeedRoutes(r, { allow, calendarFeed });
+  reportsRoutes(r, { allow, reports });
+  dashboardRoutes(r, { allow, dashboard });
   paintsRoutes(r, { allow, paints });
   recipesRoutes(r, { allow, recipes });
   schemesRoutes(r, { allow, schemes });

@@ -86,6 +86,10 @@ const table: Row[] = [
   ['POST', '/api/studios/:studioId/calendar-feed', 401, 201, 201, 403, 404],
   ['DELETE', '/api/studios/:studioId/calendar-feed', 401, 204, 204, 403, 404],
   ['GET', '/api/calendar/:token.ics', 404, 404, 404, 404, 404],
+  ['GET', '/api/studios/:studioId/reports/actuals', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/reports/earnings', 401, 200, 403, 403, 404],
+  ['PUT', '/api/studios/:studioId/reports/settings', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/dashboard', 401, 200, 200, 200, 404],
   // Paint rack, recipes, schemes, palettes (issue 5). The paint is in the recipe and the recipe in the scheme, so neither can be removed (409).
   ['GET', '/api/studios/:studioId/paints', 401, 200, 200, 403, 404],
   ['POST', '/api/studios/:studioId/paints', 401, 400, 400, 403, 404],
