@@ -1,21 +1,45 @@
+import crypto from 'node:crypto';
 import fs from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import request from 'supertest';
 import type { Express } from 'express';
+import knexFactory from 'knex';
 import { createApp, type SableworkApp } from '../../server/app';
 import { loadConfig, type Config } from '../../server/config';
 import { manualClock } from '../../server/lib/clock';
 
 export type TestApp = SableworkApp & { clock: ReturnType<typeof manualClock>; dataDir: string; stop(): Promise<void> };
 
+/**
+ * With DATABASE_URL set (a PostgreSQL server), each test app gets a database of its own, created from
+ * that URL's server and dropped when the app stops; without it, SQLite in the temporary DATA_DIR.
+ */
+async function ownPostgresDatabase(): Promise<{ url: string; drop(): Promise<void> } | null> {
+  const base = process.env.DATABASE_URL;
+  if (!base) return null;
+  const name = `sablework_test_${process.pid}_${crypto.randomBytes(4).toString('hex')}`;
+  const admin = knexFactory({ client: 'pg', connection: base, pool: { min: 0, max: 1 } });
+  await admin.raw(`create database ${name}`);
+  const url = new URL(base);
+  url.pathname = `/${name}`;
+  return {
+    url: url.toString(),
+    async drop() {
+      await admin.raw(`drop database if exists ${name} with (force)`);
+      await admin.destroy();
+    },
+  };
+}
+
 /** A real app on a fresh temporary DATA_DIR with a clock the test moves. */
 export async function startTestApp(overrides: Partial<Config> & { dataDir?: string } = {}): Promise<TestApp> {
   const dataDir = overrides.dataDir ?? fs.mkdtempSync(path.join(os.tmpdir(), 'sablework-test-'));
   const clock = manualClock();
+  const pg = overrides.databaseUrl ? null : await ownPostgresDatabase();
   const config = loadConfig(
     { DATA_DIR: dataDir },
-    { clock, logLevel: 'silent', runJobs: false, serveClient: false, demo: false, bcryptRounds: 4, publicUrl: 'http://sablework.test', ...overrides },
+    { clock, databaseUrl: pg?.url, logLevel: 'silent', runJobs: false, serveClient: false, demo: false, bcryptRounds: 4, publicUrl: 'http://sablework.test', ...overrides },
   );
   const sw = await createApp(config);
   return Object.assign(sw, {
@@ -23,6 +47,7 @@ export async function startTestApp(overrides: Partial<Config> & { dataDir?: stri
     dataDir,
     async stop() {
       await sw.close();
+      await pg?.drop();
       if (!overrides.dataDir) fs.rmSync(dataDir, { recursive: true, force: true });
     },
   });
