@@ -133,6 +133,34 @@ const table: Row[] = [
   ['POST', '/api/studios/:studioId/commissions/:commissionId/shipments/:shipmentId/ship', 401, 400, 403, 403, 404],
   ['POST', '/api/studios/:studioId/commissions/:commissionId/shipments/:shipmentId/delivered', 401, 400, 403, 403, 404],
   ['POST', '/api/studios/:studioId/commissions/:commissionId/shipments/:shipmentId/received', 401, 403, 403, 404, 404],
+  // Quotes, invoices, payments (issue 4). A second commission of the client has a sent quote and an issued invoice;
+  // the client's decline decides the quote and the owner's void the invoice: no row after theirs uses them.
+  ['GET', '/api/studios/:studioId/price-table', 401, 200, 403, 403, 404],
+  ['PUT', '/api/studios/:studioId/price-table', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/price-table/public-summary', 401, 200, 200, 200, 404],
+  ['GET', '/api/studios/:studioId/quotes', 401, 200, 403, 200, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/quotes', 401, 201, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/quotes/preview', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/quotes/:quoteId', 401, 200, 403, 200, 404],
+  ['PATCH', '/api/studios/:studioId/quotes/:quoteId', 401, 409, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/quotes/:quoteId/send', 401, 409, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/quotes/:quoteId/accept', 401, 403, 403, 400, 404],
+  ['POST', '/api/studios/:studioId/quotes/:quoteId/request-changes', 401, 403, 403, 400, 404],
+  ['POST', '/api/studios/:studioId/quotes/:quoteId/decline', 401, 403, 403, 200, 404],
+  ['GET', '/api/studios/:studioId/commissions/:commissionId/cancellation', 401, 200, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/commissions/:commissionId/cancellation', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/invoices', 401, 200, 403, 200, 404],
+  ['POST', '/api/studios/:studioId/invoices', 401, 400, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/invoices/export.csv', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/invoices/:invoiceId', 401, 200, 403, 200, 404],
+  ['GET', '/api/studios/:studioId/invoices/:invoiceId/pdf', 401, 200, 403, 200, 404],
+  ['POST', '/api/studios/:studioId/invoices/:invoiceId/issue', 401, 409, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/invoices/:invoiceId/payments', 401, 400, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/invoices/:invoiceId/refunds', 401, 400, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/invoices/:invoiceId/checkout', 401, 200, 403, 200, 404],
+  ['POST', '/api/studios/:studioId/invoices/:invoiceId/void', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/money', 401, 200, 403, 403, 404],
+  ['POST', '/api/webhooks/payments', 400, 400, 400, 400, 400],
   // Deletions run last among these rows: the owner's call removes the record, so the painter after it meets 404.
   ['DELETE', '/api/studios/:studioId/time/:entryId', 401, 204, 404, 403, 404],
   ['DELETE', '/api/studios/:studioId/figures/:figureId', 401, 204, 403, 403, 404],
@@ -187,6 +215,13 @@ beforeAll(async () => {
   const enquiryPhoto = await sw.db('enquiry_photos').where({ enquiry_id: enquiry.id }).first('id');
   const shipment = await a.owner.post(`${A}/commissions/${ids.commissionId}/shipments`, {});
   Object.assign(ids, { slug, enquiryId: String(enquiry.id), enquiryPhotoId: String(enquiryPhoto.id), shipmentId: String(shipment.body.id) });
+  // Issue 4: a second commission of the client with a sent quote and an issued invoice (studio A quotes from the default table).
+  const money = await a.owner.post(`${A}/commissions`, { clientId: a.clientId, title: 'Route money', figures: [{ name: 'Money figure', quantity: 1, sizeClass: '28', tier: 'tabletop' }] });
+  const quote = await a.owner.post(`${A}/commissions/${money.body.id}/quotes`, {});
+  await a.owner.post(`${A}/quotes/${quote.body.id}/send`);
+  const invoice = await a.owner.post(`${A}/invoices`, { commissionId: money.body.id, kind: 'custom', lines: [{ description: 'Route line', quantity: 1, unitMinor: 1000 }] });
+  await a.owner.post(`${A}/invoices/${invoice.body.id}/issue`);
+  Object.assign(ids, { quoteId: String(quote.body.id), invoiceId: String(invoice.body.id) });
 });
 afterAll(() => sw.stop());
 
