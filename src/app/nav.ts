@@ -1,4 +1,5 @@
-import { House, Settings, UserRoundCog, Users, type LucideIcon } from 'lucide-react';
+import { Brush, ClipboardList, House, Palette, Settings, UserRoundCog, Users, type LucideIcon } from 'lucide-react';
+import { Inbox } from 'lucide-react';
 import type { Role } from '../../shared/schemas/common';
 
 export type NavItem = {
@@ -15,7 +16,11 @@ export type NavItem = {
  */
 export const STUDIO_NAV: readonly NavItem[] = [
   { to: '', label: 'Home', icon: House, roles: ['owner', 'painter'] },
+  { to: 'bench', label: 'Bench', icon: Brush, roles: ['owner', 'painter'] },
+  { to: 'commissions', label: 'Commissions', icon: ClipboardList, roles: ['owner', 'painter'] },
   { to: 'clients', label: 'Clients', icon: Users, roles: ['owner', 'painter'] },
+  { to: 'paints', label: 'Paints & recipes', icon: Palette, roles: ['owner', 'painter'] },
+  { to: 'enquiries', label: 'Enquiries', icon: Inbox, roles: ['owner'] },
   { to: 'team', label: 'Team', icon: UserRoundCog, roles: ['owner'] },
   { to: 'settings', label: 'Settings', icon: Settings, roles: ['owner'] },
 ];

@@ -22,6 +22,21 @@ const ClientDetail = lazy(() => import('./routes/client-detail'));
 const Team = lazy(() => import('./routes/team'));
 const Settings = lazy(() => import('./routes/settings'));
 const StudioNotFound = lazy(() => import('./routes/studio-not-found'));
+const PublicStudio = lazy(() => import('./routes/public-studio'));
+const Enquiries = lazy(() => import('./routes/enquiries'));
+const EnquiryDetail = lazy(() => import('./routes/enquiry-detail'));
+const Paints = lazy(() => import('./routes/paints'));
+const PaintNew = lazy(() => import('./routes/paint-new'));
+const PaintEdit = lazy(() => import('./routes/paint-edit'));
+const PaintsImport = lazy(() => import('./routes/paints-import'));
+const Recipes = lazy(() => import('./routes/recipes'));
+const RecipeNew = lazy(() => import('./routes/recipe-new'));
+const RecipeDetail = lazy(() => import('./routes/recipe-detail'));
+const Palette = lazy(() => import('./routes/palette'));
+const Commissions = lazy(() => import('./routes/commissions'));
+const CommissionNew = lazy(() => import('./routes/commission-new'));
+const CommissionDetail = lazy(() => import('./routes/commission-detail'));
+const Bench = lazy(() => import('./routes/bench'));
 
 function screen(Screen: ComponentType): ReactNode {
   return (
@@ -52,6 +67,8 @@ export const routes: RouteObject[] = [
       { path: '/forgot-password', element: screen(ForgotPassword) },
       { path: '/reset-password/:token', element: screen(ResetPassword) },
       { path: '/invite/:token', element: screen(Invite) },
+      // A studio's public page for visitors, outside the signed-in screens.
+      { path: '/s/:slug', element: screen(PublicStudio) },
       {
         element: <RequireAuth />,
         children: [
@@ -68,6 +85,37 @@ export const routes: RouteObject[] = [
                   { index: true, element: <Clients /> },
                   { path: 'new', element: <RequireRole roles={OWNER}><ClientNew /></RequireRole> },
                   { path: ':clientId', element: <ClientDetail /> },
+                ],
+              },
+              {
+                path: 'commissions',
+                children: [
+                  { index: true, element: <Commissions /> },
+                  { path: 'new', element: <RequireRole roles={OWNER}><CommissionNew /></RequireRole> },
+                  { path: ':commissionId', element: <CommissionDetail /> },
+                ],
+              },
+              { path: 'bench', element: <RequireRole roles={STAFF}><Bench /></RequireRole> },
+              {
+                path: 'paints',
+                element: <RequireRole roles={STAFF} />,
+                children: [
+                  { index: true, element: <Paints /> },
+                  { path: 'new', element: <PaintNew /> },
+                  { path: 'import', element: <PaintsImport /> },
+                  { path: 'recipes', element: <Recipes /> },
+                  { path: 'recipes/new', element: <RecipeNew /> },
+                  { path: 'recipes/:recipeId', element: <RecipeDetail /> },
+                  { path: 'palette/:photoId', element: <Palette /> },
+                  { path: ':paintId', element: <PaintEdit /> },
+                ],
+              },
+              {
+                path: 'enquiries',
+                element: <RequireRole roles={OWNER} />,
+                children: [
+                  { index: true, element: <Enquiries /> },
+                  { path: ':enquiryId', element: <EnquiryDetail /> },
                 ],
               },
               { path: 'team', element: <RequireRole roles={OWNER}><Team /></RequireRole> },

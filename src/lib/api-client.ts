@@ -197,7 +197,7 @@ function sendForm<T>(path: string, form: FormData, token: string, opts: { onProg
       if (e.lengthComputable) opts.onProgress?.({ loaded: e.loaded, total: e.total });
     };
     xhr.onload = () => {
-      let body: unknown = null;
+      let body: unknown;
       try {
         body = xhr.responseText ? JSON.parse(xhr.responseText) : null;
       } catch {

@@ -9,7 +9,9 @@ import { isApiError } from '../../lib/api-client';
 import { cn } from '../../lib/cn';
 import { StudioScopeProvider } from '../../lib/studio-scope';
 import { useMe } from '../../features/auth/api/get-me';
+import { EmailNoticesButton } from '../../features/portal/components/email-notices';
 import { studioQueryOptions } from '../../features/studios/api/get-studio';
+import { RunningTimer } from '../../features/time/components/running-timer';
 import { SignOutButton } from '../components/sign-out-button';
 import { SkipLink } from '../components/skip-link';
 import { StudioSwitcher } from '../components/studio-switcher';
@@ -29,6 +31,8 @@ function Header({ me, membership, studioName }: { me: MeResponse; membership: Me
           </span>
         </Link>
         <div className="ml-auto flex items-center gap-1 sm:gap-3">
+          {membership.role !== 'client' && <RunningTimer studioId={membership.studioId} />}
+          <EmailNoticesButton on={me.user.emailNotices} role={membership.role} />
           <StudioSwitcher memberships={me.memberships} currentId={membership.studioId} />
           <span className="hidden max-w-48 truncate text-sm text-sable-600 md:inline" title={me.user.email}>
             {me.user.name}

@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useForm } from 'react-hook-form';
+import { useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { z } from 'zod';
 import { figureInput, type StudioLists } from '../../../../shared/schemas/commissions';
@@ -34,12 +34,12 @@ export function AddFigureDialog({
   const {
     register,
     handleSubmit,
-    watch,
+    control,
     reset,
     setError,
     formState: { errors },
   } = useForm<FiguresForm>({ resolver: zodResolver(oneFigure) as never, defaultValues: { figures: [emptyFigure(lists?.tiers[0]?.key)] } });
-  const large = watch('figures.0.sizeClass') === 'large';
+  const large = useWatch({ control, name: 'figures.0.sizeClass' }) === 'large';
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);

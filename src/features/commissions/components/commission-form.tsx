@@ -1,5 +1,5 @@
 import { useState } from 'react';
-import { useFieldArray, useForm } from 'react-hook-form';
+import { useFieldArray, useForm, useWatch } from 'react-hook-form';
 import { zodResolver } from '@hookform/resolvers/zod';
 import { Plus, Trash2 } from 'lucide-react';
 import { priorities, priorityLabels } from '../../../../shared/commission-lifecycle';
@@ -36,7 +36,6 @@ export function CommissionForm({
     register,
     handleSubmit,
     control,
-    watch,
     setError,
     setFocus,
     formState: { errors },
@@ -46,7 +45,7 @@ export function CommissionForm({
     defaultValues: { clientId: defaultClientId, title: '', brief: '', dueDate: '', priority: 'normal', figures: [emptyFigure(firstTier)] },
   });
   const figures = useFieldArray({ control, name: 'figures' });
-  const rows = watch('figures');
+  const rows = useWatch({ control, name: 'figures' });
 
   const onSubmit = handleSubmit(async (values) => {
     setFormError(null);

@@ -6,6 +6,7 @@ import { Badge } from '../../../components/ui/badge';
 import { useToast } from '../../../components/ui/toast';
 import { cn } from '../../../lib/cn';
 import { formatDateTime } from '../../../lib/format';
+import { useNow } from '../../../lib/use-now';
 import { useUpdateStage } from '../api/update-stage';
 import { SafetyNote } from './safety-note';
 
@@ -41,7 +42,8 @@ export function StageRow({
     setShownEstimate(stage.estimateHours);
     setEstimate(String(stage.estimateHours));
   }
-  const waiting = stage.waitUntil && Date.parse(stage.waitUntil) > Date.now();
+  const now = useNow();
+  const waiting = stage.waitUntil && Date.parse(stage.waitUntil) > now;
 
   async function save(input: Parameters<typeof update.mutateAsync>[0]) {
     try {
