@@ -1,0 +1,1 @@
+export { EnquiryDetailRoute as default } from '../../features/enquiries/routes/enquiry-detail';

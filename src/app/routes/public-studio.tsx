@@ -1,0 +1,1 @@
+export { PublicStudioRoute as default } from '../../features/public-studio/routes/public-studio-page';
