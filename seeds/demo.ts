@@ -7,6 +7,7 @@ import { commissionsDemo } from './demo-commissions';
 import { enquiriesDemo } from './demo-enquiries';
 import { paintsDemo } from './demo-paints';
 import { photosDemo } from './demo-photos';
+import { moneyDemo } from './demo-money';
 
 /**
  * The demo scenario: an invented studio, its people and clients. Every name here is made up
@@ -27,6 +28,7 @@ demoSteps.push(commissionsDemo);
 demoSteps.push(enquiriesDemo);
 demoSteps.push(paintsDemo);
 demoSteps.push(photosDemo);
+demoSteps.push(moneyDemo);
 
 export async function seedDemo(db: Db, deps: { clock: Clock; hash: (p: string) => Promise<string>; studios: StudiosService; photoStorage?: FileStorage }) {
   const now = iso(deps.clock.now());
