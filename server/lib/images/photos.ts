@@ -59,8 +59,8 @@ export async function inspectPhoto(input: Buffer): Promise<{ format: PhotoFormat
 /**
  * The upright original plus WebP renditions (320, 1280, 2560 px on the longest side, never enlarged).
  * One sharp pipeline on the upload, with two clone()s running side by side: one writes the full-size
- * original, the other makes the 2560 px pixels, from which all three renditions are encoded (1280 and
- * 320 px scaled from those, not from the upload). libvips decodes per clone, so the upload is decoded
+ * original, the other makes the 2560 px pixels, from which the three renditions are encoded in turn
+ * (1280 and 320 px scaled from those, not from the upload). libvips decodes per clone, so the upload is decoded
  * at full size once, for the original, and once more for the renditions, which for a JPEG is read at
  * half scale or less (shrink-on-load) and costs a fraction of a full decode. Decoding once into a
  * full-size pixel buffer instead was measured slower and holds 70 MB more per 24-megapixel photo.
@@ -73,25 +73,21 @@ export async function processPhoto(input: Buffer): Promise<ProcessedPhoto> {
     return { width: Math.max(1, Math.round(width * k)), height: Math.max(1, Math.round(height * k)), fit: 'fill' as const };
   };
   const upright = sharp(input, { limitInputPixels: MAX_PHOTO_PIXELS, failOn: 'error' }).autoOrient().toColourspace('srgb');
-  try {
-    const [original, large] = await Promise.all([
-      encoders.original[format](upright.clone()).toBuffer({ resolveWithObject: true }),
-      upright.clone().resize(fit(renditionSides.large)).raw({ depth: 'uchar' }).toBuffer({ resolveWithObject: true }),
-    ]);
+  // The renditions one after another: three WebP encoders at once would hold their buffers (and, with
+  // glibc, their threads' arenas) together for no gain on a machine the upload limit already keeps busy.
+  const renditions = async () => {
+    const large = await upright.clone().resize(fit(renditionSides.large)).raw({ depth: 'uchar' }).toBuffer({ resolveWithObject: true });
     const { channels } = large.info;
     const pixels = sharp(large.data, { raw: { width: large.info.width, height: large.info.height, channels: channels as 1 | 2 | 3 | 4 } });
-    const renditions = await Promise.all(
-      (Object.keys(renditionSides) as RenditionName[]).map(async (name) => {
-        const scaled = name === 'large' ? pixels.clone() : pixels.clone().resize(fit(renditionSides[name]));
-        return [name, await encoders.rendition(scaled).toBuffer()] as const;
-      }),
-    );
-    return {
-      format,
-      width: original.info.width,
-      height: original.info.height,
-      files: { original: original.data, ...Object.fromEntries(renditions) } as Record<PhotoSize, Buffer>,
-    };
+    const out: Partial<Record<RenditionName, Buffer>> = {};
+    for (const name of Object.keys(renditionSides) as RenditionName[]) {
+      out[name] = await encoders.rendition(name === 'large' ? pixels.clone() : pixels.clone().resize(fit(renditionSides[name]))).toBuffer();
+    }
+    return out as Record<RenditionName, Buffer>;
+  };
+  try {
+    const [original, made] = await Promise.all([encoders.original[format](upright.clone()).toBuffer({ resolveWithObject: true }), renditions()]);
+    return { format, width: original.info.width, height: original.info.height, files: { original: original.data, ...made } };
   } catch (err) {
     if (/pixel limit/i.test(String((err as Error)?.message))) throw tooManyPixels();
     throw errors.unsupported('That photo is damaged or incomplete; try saving it again.');
