@@ -145,6 +145,7 @@ export async function paintsDemo(ctx: DemoContext) {
   const bone = await recipes.create(studioId, users.owner, {
     name: 'Warm bone',
     description: 'Horns, tusks and bone charms.',
+    colour: null,
     steps: [
       step({ technique: 'basecoat', paints: [use('Warm bone')] }),
       step({ technique: 'wash', paints: [use('Sepia shade')] }),
@@ -155,6 +156,7 @@ export async function paintsDemo(ctx: DemoContext) {
   const iron = await recipes.create(studioId, users.owner, {
     name: 'Rusted iron',
     description: 'Blades and lantern frames.',
+    colour: null,
     steps: [
       step({ technique: 'basecoat', paints: [use('Dark iron')] }),
       step({ technique: 'wash', paints: [use('Grime wash (enamel)')], dilution: { diluent: 1, paint: 1, with: 'thinner' }, notes: 'Remove the excess with a brush damp with thinner.' }),

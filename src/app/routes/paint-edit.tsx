@@ -1,0 +1,1 @@
+export { PaintEditRoute as default } from '../../features/paints/routes/paint-edit';

@@ -1,0 +1,1 @@
+export { PaintNewRoute as default } from '../../features/paints/routes/paint-edit';

@@ -1,0 +1,1 @@
+export { PaintsImportRoute as default } from '../../features/paints/routes/paint-edit';

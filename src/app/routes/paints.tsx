@@ -1,0 +1,1 @@
+export { PaintsListRoute as default } from '../../features/paints/routes/paints-list';

@@ -1,0 +1,1 @@
+export { PaletteViewRoute as default } from '../../features/palette/routes/palette-view';

@@ -1,0 +1,1 @@
+export { RecipeDetailRoute as default } from '../../features/recipes/routes/recipe-pages';

@@ -1,0 +1,1 @@
+export { RecipeNewRoute as default } from '../../features/recipes/routes/recipe-pages';

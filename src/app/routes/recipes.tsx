@@ -1,0 +1,1 @@
+export { RecipesListRoute as default } from '../../features/recipes/routes/recipes-list';
