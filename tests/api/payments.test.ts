@@ -1,8 +1,10 @@
 // The whole way from a quote to a paid deposit through the local fake of the payment service: the app listens,
 // the fake posts its signed events to POST /api/webhooks/payments, and the payer drives the fake's checkout page.
+import fs from 'node:fs';
+import path from 'node:path';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { mailTo, startTestApp, type TestApp } from '../support/app';
+import { mailTo, signUp, startTestApp, type TestApp } from '../support/app';
 import { acceptedQuote, commission, invoicesOf, listen, moneyStudios, payOnCheckoutPage, sentQuote, type Side } from './money-flow';
 
 let sw: TestApp;
@@ -261,5 +263,40 @@ describe('cancellation per the terms', () => {
     const preview = (await a.owner.get(url(a, `/commissions/${c.id}/cancellation`))).body;
     // all quoted stage time: 360 min → €180.00 of work against a €95.00 deposit
     expect(preview).toMatchObject({ workDoneMinutes: 360, workDoneMinor: 18000, keptMinor: 9500, refundMinor: 0 });
+  });
+});
+
+describe("the payment service's amount rules on real invoices", () => {
+  // ../shared/reference/stripe_currency_decimals.tsv: JPY is zero-decimal (charged as is); KWD three-decimal,
+  // charged in multiples of 10 fils (rounded half away from zero, so 5.125 KWD is charged as 5.130).
+  const reference = fs
+    .readFileSync(path.resolve(process.cwd(), '../shared/reference/stripe_currency_decimals.tsv'), 'utf8')
+    .split('\n')
+    .filter((l) => l.trim() && !l.startsWith('#'))
+    .map((l) => l.split('\t'));
+  const classOf = (code: string) => {
+    const col = reference[0].indexOf('stripe_class');
+    const row = reference.find((r) => r[0] === code);
+    if (!row || col < 0) throw new Error(`${code} is not in stripe_currency_decimals.tsv`);
+    return row[col].trim();
+  };
+  it.each([
+    ['JPY', 'zero-decimal', 12345, 12345],
+    ['KWD', 'three-decimal', 5125, 5130],
+  ])('%s (%s): an invoice of %i minor units is charged %i and settles', async (currency, cls, amount, charged) => {
+    expect(classOf(currency)).toBe(cls); // stripe_currency_decimals.tsv
+    const owner = await signUp(sw, { email: `owner-${currency.toLowerCase()}@studio.test`, studioName: `${currency} studio`, currency });
+    const s = `/api/studios/${owner.studioId}`;
+    const client = await owner.caller.post(`${s}/clients`, { name: `${currency} client`, email: `client-${currency.toLowerCase()}@studio.test` });
+    const c = await owner.caller.post(`${s}/commissions`, { clientId: client.body.id, title: `${currency} work`, figures: [] });
+    const inv = await owner.caller.post(`${s}/invoices`, { commissionId: c.body.id, kind: 'custom', lines: [{ description: 'Work', quantity: 1, unitMinor: amount, taxBp: 0 }] });
+    expect(inv.body.currency).toBe(currency);
+    await owner.caller.post(`${s}/invoices/${inv.body.id}/issue`);
+    const co = await owner.caller.post(`${s}/invoices/${inv.body.id}/checkout`);
+    expect(co.body).toMatchObject({ currency, amountMinor: charged });
+    expect((await payOnCheckoutPage(co.body.url)).status).toBe(303);
+    await sw.paymentsFake!.idle();
+    const after = (await owner.caller.get(`${s}/invoices/${inv.body.id}`)).body;
+    expect(after).toMatchObject({ status: 'paid', paid: charged, balanceDue: 0 });
   });
 });
