@@ -16,8 +16,10 @@ import { CommentsThread } from '../components/comments-thread';
 import { DueDate } from '../components/due-date';
 import { ProgressBar } from '../components/progress-bar';
 import { SchemeNotes } from '../components/scheme-notes';
+import { SchemeSection } from '../../schemes/components/scheme-section';
 import { StatusBadge } from '../components/status-badge';
 import { Section } from './commission-detail';
+import { ClientParcel } from '../../shipments/components/client-parcel';
 
 function Back() {
   return (
@@ -100,6 +102,8 @@ export function ClientCommissionRoute({
           </dl>
         </Card>
 
+        <ClientParcel studioId={studioId} commissionId={c.id} commissionStatus={c.status} timezone={timezone} />
+
         <Section id="approvals" title="Waiting for your answer">
           <ClientApprovals studioId={studioId} commissionId={c.id} timezone={timezone} />
         </Section>
@@ -127,6 +131,7 @@ export function ClientCommissionRoute({
             canEdit={!lockedStatuses.includes(c.status)}
             hint="Colours you want, what to avoid, what the figures should feel like. The studio reads these."
           />
+          <SchemeSection commissionId={c.id} />
           {references?.(c)}
         </Section>
 

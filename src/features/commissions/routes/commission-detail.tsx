@@ -26,13 +26,16 @@ import { FigureCard, type StageSlots } from '../components/figure-card';
 import type { PersonOption } from '../components/figure-fields';
 import { ProgressBar } from '../components/progress-bar';
 import { SchemeNotes } from '../components/scheme-notes';
+import { SchemeSection } from '../../schemes/components/scheme-section';
 import { StatusBadge } from '../components/status-badge';
 import { TransitionBar } from '../components/transition-bar';
 import { BackToCommissions } from './commission-new';
+import { ModelsInSection } from '../../models-in/components/models-in-section';
+import { ShippingSection } from '../../shipments/components/shipping-section';
 
 export function Section({ id, title, actions, children }: { id: string; title: string; actions?: ReactNode; children: ReactNode }) {
   return (
-    <section aria-labelledby={`${id}-title`} className="flex flex-col gap-3">
+    <section id={id} aria-labelledby={`${id}-title`} className="flex scroll-mt-20 flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
         <h2 id={`${id}-title`} className="text-lg font-semibold">
           {title}
@@ -87,6 +90,20 @@ export function CommissionDetailRoute({
     <>
       <BackToCommissions />
       <PageTitle title={c.title} description={`For ${c.client.name}`} />
+      <nav aria-label="On this page" className="-mt-3 mb-5 flex flex-wrap gap-x-4 gap-y-1 text-sm">
+        {[
+          ['figures', 'Figures'],
+          ...(photos ? [['photos', 'Photos']] : []),
+          ['scheme', 'Scheme'],
+          ['approvals', 'Approvals'],
+          ['comments', 'Comments'],
+          ['activity', 'Activity'],
+        ].map(([id, label]) => (
+          <a key={id} href={`#${id}`}>
+            {label}
+          </a>
+        ))}
+      </nav>
       <div className="flex flex-col gap-8">
         <Card>
           <dl className="grid gap-x-6 gap-y-3 text-sm sm:grid-cols-3">
@@ -166,6 +183,8 @@ export function CommissionDetailRoute({
           )}
         </Section>
 
+        <ModelsInSection studioId={studioId} commissionId={c.id} canNotify={isOwner} timezone={timezone} locked={locked} />
+
         {photos && (
           <Section id="photos" title="Photos">
             {photos(c)}
@@ -180,11 +199,14 @@ export function CommissionDetailRoute({
             canEdit={isOwner && !locked}
             hint="The client sees and edits these notes too."
           />
+          <SchemeSection commissionId={c.id} figures={c.figures} />
         </Section>
 
         <Section id="approvals" title="Approvals">
           <StudioApprovals studioId={studioId} commissionId={c.id} timezone={timezone} locked={locked} />
         </Section>
+
+        <ShippingSection studioId={studioId} commissionId={c.id} commissionStatus={c.status} isOwner={isOwner} timezone={timezone} />
 
         <Section id="comments" title="Comments with the client">
           <CommentsThread studioId={studioId} commissionId={c.id} userId={userId} timezone={timezone} />
