@@ -351,8 +351,10 @@ export function quotesService(deps: QuotesDeps) {
         }
         const c = (await repo.commission(actor.studioId, r.commission_id, trx))!;
         if (!lockedStatuses.includes(c.status)) {
+          // only this commission's figures: a line's id comes from the (editable) quote input
+          const own = new Set((await deps.figuresOf(actor.studioId, r.commission_id, trx)).map((f) => f.id));
           for (const l of accepted.result.lines) {
-            if (l.type === 'figure' && typeof l.id === 'number') await deps.setStageEstimates(trx, actor.studioId, l.id, l.batchStageMinutes);
+            if (l.type === 'figure' && typeof l.id === 'number' && own.has(l.id)) await deps.setStageEstimates(trx, actor.studioId, l.id, l.batchStageMinutes);
           }
         }
         await activity.record(trx, { studioId: actor.studioId, commissionId: r.commission_id, userId: user.id, action: 'quote.accepted', detail: { quoteId: id, version: r.version, summary: `accepted version ${r.version} of the quote.` } });
