@@ -268,7 +268,8 @@ export function shipmentsService(deps: { db: Db; repo: ShipmentsRepository; comm
         if (Object.keys(fields).length) throw errors.invalid('Fill in the parcel’s details before it leaves.', fields);
 
         const override = input.overrideUnpaid && input.overrideReason ? { reason: input.overrideReason } : undefined;
-        await commissions.transitionIn(trx, actor, commissionId, 'shipped', undefined, { override });
+        // Moved to shipped already (through the plain transition, balance paid): the parcel just catches up.
+        if (c.status !== 'shipped') await commissions.transitionIn(trx, actor, commissionId, 'shipped', undefined, { override });
         const overridden = override && balanceOf(await repo.invoices(actor.studioId, commissionId, trx)).unpaid ? override.reason : null;
         if ((await repo.move(trx, actor.studioId, id, 'preparing', { status: 'shipped', shipped_at: at, shipped_by: actor.userId, override_reason: overridden, updated_at: at })) !== 1) {
           throw errors.conflict('This parcel has already left.', 'already_shipped');
