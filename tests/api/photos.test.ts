@@ -52,6 +52,26 @@ describe('photo upload', () => {
     expect(row.bytes).toBeGreaterThan(0);
   });
 
+  it('keeps the upload\'s format for the original: WebP stays WebP, a PNG keeps its transparency; greyscale is fine', async () => {
+    const webp = await images.twoTone(300, 200, 'webp');
+    const clear = await sharp({ create: { width: 120, height: 80, channels: 4, background: { r: 200, g: 30, b: 30, alpha: 0 } } }).png().toBuffer();
+    const grey = await sharp(await images.twoTone(100, 100)).greyscale().jpeg().toBuffer();
+    const res = await upload(s.a.owner, url, [
+      { data: webp, name: 'a.webp', type: 'image/webp' },
+      { data: clear, name: 'b.png', type: 'image/png' },
+      { data: grey, name: 'c.jpg' },
+    ]);
+    expect(res.status, JSON.stringify(res.body)).toBe(201);
+    const [w, p, g] = res.body as { urls: Record<string, string> }[];
+    expect((await get(w.urls.original).expect(200)).headers['content-type']).toBe('image/webp');
+    const png = (await get(p.urls.original).expect(200)).body as Buffer;
+    const pm = await sharp(png).metadata();
+    expect([pm.format, pm.hasAlpha]).toEqual(['png', true]);
+    const thumb = await sharp((await get(p.urls.thumb).expect(200)).body as Buffer).metadata();
+    expect(thumb.hasAlpha).toBe(true);
+    expect((await sharp((await get(g.urls.medium).expect(200)).body as Buffer).metadata()).format).toBe('webp');
+  });
+
   it('removes an EXIF GPS position (and all other metadata) from the original and every rendition', async () => {
     const input = await sharp({ create: { width: 640, height: 480, channels: 3, background: '#8a9a5b' } })
       .jpeg()
