@@ -1,5 +1,6 @@
 import { Brush, ClipboardList, House, Palette, Settings, UserRoundCog, Users, type LucideIcon } from 'lucide-react';
 import { Inbox } from 'lucide-react';
+import { Receipt } from 'lucide-react';
 import type { Role } from '../../shared/schemas/common';
 
 export type NavItem = {
@@ -19,6 +20,7 @@ export const STUDIO_NAV: readonly NavItem[] = [
   { to: 'bench', label: 'Bench', icon: Brush, roles: ['owner', 'painter'] },
   { to: 'commissions', label: 'Commissions', icon: ClipboardList, roles: ['owner', 'painter'] },
   { to: 'clients', label: 'Clients', icon: Users, roles: ['owner', 'painter'] },
+  { to: 'money', label: 'Quotes & invoices', icon: Receipt, roles: ['owner'] },
   { to: 'paints', label: 'Paints & recipes', icon: Palette, roles: ['owner', 'painter'] },
   { to: 'enquiries', label: 'Enquiries', icon: Inbox, roles: ['owner'] },
   { to: 'team', label: 'Team', icon: UserRoundCog, roles: ['owner'] },

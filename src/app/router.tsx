@@ -37,6 +37,14 @@ const Commissions = lazy(() => import('./routes/commissions'));
 const CommissionNew = lazy(() => import('./routes/commission-new'));
 const CommissionDetail = lazy(() => import('./routes/commission-detail'));
 const Bench = lazy(() => import('./routes/bench'));
+const Money = lazy(() => import('./routes/money'));
+const Prices = lazy(() => import('./routes/prices'));
+const Quotes = lazy(() => import('./routes/quotes'));
+const QuoteDetail = lazy(() => import('./routes/quote-detail'));
+const CommissionQuotes = lazy(() => import('./routes/commission-quotes'));
+const Invoices = lazy(() => import('./routes/invoices'));
+const InvoiceDetail = lazy(() => import('./routes/invoice-detail'));
+const InvoicePaid = lazy(() => import('./routes/invoice-paid'));
 
 function screen(Screen: ComponentType): ReactNode {
   return (
@@ -56,6 +64,7 @@ function HomeRedirect() {
 
 const STAFF = ['owner', 'painter'] as const;
 const OWNER = ['owner'] as const;
+const MONEY = ['owner', 'client'] as const;
 
 export const routes: RouteObject[] = [
   {
@@ -116,6 +125,27 @@ export const routes: RouteObject[] = [
                 children: [
                   { index: true, element: <Enquiries /> },
                   { path: ':enquiryId', element: <EnquiryDetail /> },
+                ],
+              },
+              // Money: owners see everything; a client their own quotes and invoices; painters none of it.
+              { path: 'money', element: <RequireRole roles={OWNER}><Money /></RequireRole> },
+              { path: 'money/prices', element: <RequireRole roles={OWNER}><Prices /></RequireRole> },
+              { path: 'commissions/:commissionId/quotes', element: <RequireRole roles={OWNER}><CommissionQuotes /></RequireRole> },
+              {
+                path: 'quotes',
+                element: <RequireRole roles={MONEY} />,
+                children: [
+                  { index: true, element: <Quotes /> },
+                  { path: ':quoteId', element: <QuoteDetail /> },
+                ],
+              },
+              {
+                path: 'invoices',
+                element: <RequireRole roles={MONEY} />,
+                children: [
+                  { index: true, element: <Invoices /> },
+                  { path: ':invoiceId', element: <InvoiceDetail /> },
+                  { path: ':invoiceId/paid', element: <InvoicePaid /> },
                 ],
               },
               { path: 'team', element: <RequireRole roles={OWNER}><Team /></RequireRole> },

@@ -1,0 +1,1 @@
+export { CommissionQuotesRoute as default } from '../../features/quotes/routes/commission-quotes';

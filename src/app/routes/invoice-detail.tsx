@@ -1,0 +1,1 @@
+export { InvoiceDetailRoute as default } from '../../features/invoices/routes/invoice-detail';

@@ -1,0 +1,1 @@
+export { InvoicePaidRoute as default } from '../../features/invoices/routes/invoice-paid';
