@@ -511,7 +511,8 @@ function everyNumber(v: unknown, path = '$', out: [string, number][] = []): [str
 
 const sum = (xs: number[]) => xs.reduce((s, x) => s + x, 0);
 
-describe('properties of random quotes (USD, JPY, KWD)', () => {
+// Hundreds of random quotes per property: seconds on an idle machine, more on a shared one.
+describe('properties of random quotes (USD, JPY, KWD)', { timeout: 60_000 }, () => {
   it('lines sum to the subtotal; deposit + balance = total; the order adds up', () => {
     fc.assert(
       fc.property(quoteArb, (input) => {
