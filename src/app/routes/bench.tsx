@@ -14,7 +14,7 @@ export default function BenchPage() {
       cardTools={(card) =>
         card.stage && (
           <>
-            <StageTimer studioId={studioId} stageId={card.stage.id} stageName={card.stage.name} figureName={card.figureName} />
+            <StageTimer studioId={studioId} stageId={card.stage.id} stageName={card.stage.name} figureName={card.figureName} short />
             <AddPhotoButton
               studioId={studioId}
               commissionId={card.commission.id}

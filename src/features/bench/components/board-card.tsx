@@ -7,13 +7,22 @@ import type { BoardCard as Card } from '../../../../shared/schemas/commissions';
 import { Badge } from '../../../components/ui/badge';
 import { Button } from '../../../components/ui/button';
 import { cn } from '../../../lib/cn';
-import { formatDate, formatDateTime } from '../../../lib/format';
+import { formatDate } from '../../../lib/format';
 import { useNow } from '../../../lib/use-now';
 import { HazardChips } from './hazard-chips';
 
 export type CardData = { card: Card; columnIndex: number; nextName: string | null };
 
 const day = (d: string) => formatDate(`${d}T12:00:00Z`, 'UTC');
+
+/** "Wed, 2 Dec, 01:05" in the studio's timezone: short enough for a card. */
+function shortDateTime(iso: string, timeZone: string): string {
+  try {
+    return new Intl.DateTimeFormat(undefined, { weekday: 'short', day: 'numeric', month: 'short', hour: '2-digit', minute: '2-digit', timeZone }).format(new Date(iso));
+  } catch {
+    return new Date(iso).toLocaleString();
+  }
+}
 
 export function BoardCardView({
   card,
@@ -43,7 +52,18 @@ export function BoardCardView({
         isDragging && 'z-20 border-verdigris-600 opacity-90',
       )}
     >
-      <div className="flex items-start gap-2">
+      <div className="flex items-start gap-1">
+        <div className="min-w-0 flex-1">
+          <h3 id={titleId} className="font-semibold break-words">
+            {card.figureName}
+            {card.quantity > 1 && <span className="figures font-normal whitespace-nowrap text-sable-600"> × {card.quantity}</span>}
+          </h3>
+          <p className="text-xs break-words">
+            <Link to={`../commissions/${card.commission.id}`} relative="path">
+              {card.commission.title}
+            </Link>
+          </p>
+        </div>
         {stage && nextName && (
           <button
             ref={setActivatorNodeRef}
@@ -51,22 +71,11 @@ export function BoardCardView({
             {...attributes}
             {...listeners}
             aria-label={`Drag ${card.figureName} to ${nextName}`}
-            className="-ml-1 cursor-grab touch-none rounded-control p-1 text-sable-600 hover:bg-primer-100 active:cursor-grabbing"
+            className="-mt-1 -mr-1 cursor-grab touch-none rounded-control p-1.5 text-sable-600 hover:bg-primer-100 active:cursor-grabbing"
           >
             <GripVertical aria-hidden="true" className="size-4" />
           </button>
         )}
-        <div className="min-w-0 flex-1">
-          <h3 id={titleId} className="font-semibold break-words">
-            {card.figureName}
-            {card.quantity > 1 && <span className="figures font-normal text-sable-600"> × {card.quantity}</span>}
-          </h3>
-          <p className="text-xs break-words text-sable-600">
-            <Link to={`../commissions/${card.commission.id}`} relative="path">
-              {card.commission.title}
-            </Link>
-          </p>
-        </div>
       </div>
       <p className="text-xs text-sable-600">
         {card.painter ? card.painter.name : 'No painter yet'}
@@ -76,9 +85,9 @@ export function BoardCardView({
         <div className="flex flex-wrap gap-1">
           {stage.status === 'working' && <Badge tone="success">Working on it</Badge>}
           {waiting && (
-            <Badge tone="attention">
-              <Hourglass aria-hidden="true" className="size-3" />
-              Wait until {formatDateTime(stage.waitUntil!, timezone)}
+            <Badge tone="attention" className="whitespace-normal!">
+              <Hourglass aria-hidden="true" className="size-3 shrink-0" />
+              Drying until {shortDateTime(stage.waitUntil!, timezone)}
             </Badge>
           )}
         </div>
@@ -96,9 +105,10 @@ export function BoardCardView({
         <div className="h-full bg-verdigris-600" style={{ width: `${Math.round(card.progress.share * 100)}%` }} />
       </div>
       {stage && (
-        <div className="flex flex-wrap items-center gap-1">
+        <div className="flex flex-col gap-1">
           <Button
             size="sm"
+            className="w-full whitespace-normal"
             loading={advancing}
             onClick={onAdvance}
             aria-label={`Mark ${stage.name} done for ${card.figureName}${nextName ? ` and move it to ${nextName}` : ''}`}
@@ -106,7 +116,7 @@ export function BoardCardView({
             <Check aria-hidden="true" className="size-4" />
             {stage.name} done
           </Button>
-          {tools}
+          {tools && <div className="flex flex-wrap items-center justify-between gap-1">{tools}</div>}
         </div>
       )}
     </article>

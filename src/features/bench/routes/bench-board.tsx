@@ -212,7 +212,7 @@ export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Perso
         </EmptyState>
       ) : (
         <DndContext sensors={sensors} collisionDetection={collision} onDragStart={onDragStart} onDragEnd={onDragEnd} onDragCancel={() => setActive(null)} accessibility={{ announcements, screenReaderInstructions: { draggable: 'To move this card to the next stage: press Space, then the right arrow, then Space again. Escape puts it back. The “done” button beside it does the same in one press.' } }}>
-          <div role="region" aria-label="Bench board" className="grid gap-3 sm:grid-cols-2 lg:grid-cols-3 xl:grid-cols-4">
+          <div role="region" aria-label="Bench board" className="grid items-start gap-3 sm:grid-cols-2 lg:grid-cols-3 xl:grid-cols-4">
             {columns.map((col, i) => {
               const next = columns[i + 1]?.name ?? null;
               const isTarget = active !== null && (i === active.columnIndex + 1 || i === active.columnIndex);

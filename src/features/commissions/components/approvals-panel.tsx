@@ -14,12 +14,12 @@ import { useRequestApproval } from '../api/request-approval';
 
 const tone = { requested: 'attention', approved: 'success', changes: 'danger' } as const;
 
-function ApprovalItem({ a, timezone, children }: { a: Approval; timezone: string; children?: ReactNode }) {
+function ApprovalItem({ a, timezone, children, forClient = false }: { a: Approval; timezone: string; children?: ReactNode; forClient?: boolean }) {
   return (
     <li className="flex flex-col gap-2 rounded-card border border-primer-300 bg-white p-3 text-sm">
       <div className="flex flex-wrap items-center gap-2">
         <span className="font-semibold">{approvalSubjectLabels[a.subject]}</span>
-        <Badge tone={tone[a.status]}>{approvalStatusLabels[a.status]}</Badge>
+        <Badge tone={tone[a.status]}>{forClient && a.status === 'requested' ? 'Waiting for you' : approvalStatusLabels[a.status]}</Badge>
       </div>
       <p className="text-xs text-sable-600">
         Asked {a.requestedBy ? `by ${a.requestedBy.name} ` : ''}on {formatDateTime(a.requestedAt, timezone)}
@@ -63,7 +63,7 @@ export function StudioApprovals({ studioId, commissionId, timezone, locked }: { 
       {!locked && (
         <form
           aria-label="Ask the client to approve"
-          className="flex flex-col gap-3 rounded-card border border-dashed border-primer-300 p-3"
+          className="flex max-w-2xl flex-col gap-3 rounded-card border border-dashed border-primer-300 p-3"
           onSubmit={async (e) => {
             e.preventDefault();
             setError(null);
@@ -150,13 +150,31 @@ export function ClientApprovals({ studioId, commissionId, timezone }: { studioId
   if (approvals.isPending) return <LoadingBlock label="Loading approvals…" />;
   if (approvals.error) return <ErrorNote>{approvals.error.message}</ErrorNote>;
   if (approvals.data.length === 0) return <p className="text-sm text-sable-600">Nothing to approve yet. When the studio asks, it shows here.</p>;
+  const open = approvals.data.filter((a) => a.status === 'requested');
+  const earlier = approvals.data.filter((a) => a.status !== 'requested');
   return (
-    <ul className="flex flex-col gap-2">
-      {approvals.data.map((a) => (
-        <ApprovalItem key={a.id} a={a} timezone={timezone}>
-          {a.status === 'requested' && <Decide studioId={studioId} a={a} />}
-        </ApprovalItem>
-      ))}
-    </ul>
+    <div className="flex flex-col gap-3">
+      {open.length === 0 ? (
+        <p className="text-sm text-sable-600">Nothing waits for your answer right now.</p>
+      ) : (
+        <ul aria-label="Waiting for your answer" className="flex flex-col gap-2">
+          {open.map((a) => (
+            <ApprovalItem key={a.id} a={a} timezone={timezone} forClient>
+              <Decide studioId={studioId} a={a} />
+            </ApprovalItem>
+          ))}
+        </ul>
+      )}
+      {earlier.length > 0 && (
+        <details className="text-sm">
+          <summary className="cursor-pointer text-verdigris-600">Your earlier answers ({earlier.length})</summary>
+          <ul className="mt-2 flex flex-col gap-2">
+            {earlier.map((a) => (
+              <ApprovalItem key={a.id} a={a} timezone={timezone} forClient />
+            ))}
+          </ul>
+        </details>
+      )}
+    </div>
   );
 }

@@ -56,7 +56,7 @@ export function CommentsThread({ studioId, commissionId, userId, timezone }: { s
         </ol>
       )}
       <form
-        className="flex flex-col gap-2"
+        className="flex max-w-2xl flex-col gap-2"
         onSubmit={(e) => {
           e.preventDefault();
           void send();

@@ -26,12 +26,8 @@ export function CommissionsTable({ items, caption, timezone }: { items: Commissi
               <Link to={String(c.id)} className="font-medium">
                 {c.title}
               </Link>
-              {c.priority === 'high' && (
-                <Badge tone="attention" className="ml-2">
-                  {priorityLabels.high} priority
-                </Badge>
-              )}
-              <span className="block text-xs text-sable-600">
+              <span className="flex flex-wrap items-center gap-x-1 text-xs text-sable-600">
+                {c.priority === 'high' && <Badge tone="attention">{priorityLabels.high} priority</Badge>}
                 <span className="md:hidden">{c.client.name} · </span>
                 {c.modelCount} {c.modelCount === 1 ? 'figure' : 'figures'}
                 <span className="sm:hidden"> · {c.dueDate ? `due ${formatDay(c.dueDate)}` : 'no due date'}</span>

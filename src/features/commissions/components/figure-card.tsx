@@ -72,7 +72,7 @@ export function FigureCard({
             locked={locked}
             hazards={hazards}
             timezone={timezone}
-            timer={locked ? undefined : slots?.timer?.(s, figure)}
+            timer={locked || s.status === 'done' || s.status === 'skipped' ? undefined : slots?.timer?.(s, figure)}
             timeLog={slots?.timeLog?.(s, figure)}
           />
         ))}

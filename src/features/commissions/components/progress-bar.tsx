@@ -4,15 +4,16 @@ import { cn } from '../../../lib/cn';
 const hours = (h: number) => `${new Intl.NumberFormat(undefined, { maximumFractionDigits: 1 }).format(h)} h`;
 
 /** "6 of 11 stages · 14.5 h of 22 h" */
-export function progressText(p: Progress): string {
+export function progressText(p: Progress, withHours = true): string {
   const stages = `${p.stagesDone} of ${p.stagesTotal} ${p.stagesTotal === 1 ? 'stage' : 'stages'}`;
-  return p.hoursTotal > 0 ? `${stages} · ${hours(p.hoursDone)} of ${hours(p.hoursTotal)}` : stages;
+  return withHours && p.hoursTotal > 0 ? `${stages} · ${hours(p.hoursDone)} of ${hours(p.hoursTotal)}` : stages;
 }
 
 /** A thin bar plus the words; the bar is a meter for assistive technology, labelled by `label`. */
-export function ProgressBar({ progress, label, className, compact = false }: { progress: Progress; label: string; className?: string; compact?: boolean }) {
+/** `hours` off for clients: the studio's estimates are its own business. */
+export function ProgressBar({ progress, label, className, compact = false, hours: withHours = true }: { progress: Progress; label: string; className?: string; compact?: boolean; hours?: boolean }) {
   const pct = Math.round(Math.min(1, Math.max(0, progress.share)) * 100);
-  const text = progressText(progress);
+  const text = progressText(progress, withHours);
   return (
     <div className={cn('flex flex-col gap-1', className)}>
       <div

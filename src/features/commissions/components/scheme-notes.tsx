@@ -22,7 +22,7 @@ export function SchemeNotes({ studioId, commissionId, notes, canEdit, hint }: { 
   }
   return (
     <form
-      className="flex flex-col gap-2"
+      className="flex max-w-2xl flex-col gap-2"
       onSubmit={async (e) => {
         e.preventDefault();
         try {

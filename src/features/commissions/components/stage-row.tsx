@@ -37,6 +37,8 @@ export function StageRow({
   const toast = useToast();
   const [estimate, setEstimate] = useState(String(stage.estimateHours));
   const [openTime, setOpenTime] = useState(false);
+  // The stage being worked shows its caution open; others on request.
+  const [showSafety, setShowSafety] = useState(current);
   const [shownEstimate, setShownEstimate] = useState(stage.estimateHours);
   if (shownEstimate !== stage.estimateHours) {
     setShownEstimate(stage.estimateHours);
@@ -66,17 +68,18 @@ export function StageRow({
 
   const statusId = `stage-${stage.id}-status`;
   const estimateId = `stage-${stage.id}-estimate`;
+  const toggle = 'inline-flex min-h-8 items-center gap-1 rounded-control px-1 text-sm text-verdigris-600 hover:bg-verdigris-100';
   return (
-    <li className={cn('flex flex-col gap-2 py-3', current && 'rounded-control bg-verdigris-100 px-3')}>
+    <li className={cn('flex flex-col gap-1 py-2', current && '-mx-2 rounded-control bg-verdigris-100 px-2')}>
       <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
-        <div className="flex min-w-40 flex-1 items-center gap-2">
+        <div className="flex min-w-40 flex-1 flex-wrap items-center gap-2">
           <span className={cn('font-medium', stage.status === 'skipped' && 'text-sable-600 line-through')}>{stage.name}</span>
           {current && <Badge tone="success">Now</Badge>}
-          {stage.hazards.length > 0 && (
-            <span className="inline-flex items-center gap-1 text-xs text-sable-600">
-              <TriangleAlert aria-hidden="true" className="size-3.5" />
-              {stage.hazards.length === 1 ? 'Safety note' : `${stage.hazards.length} safety notes`}
-            </span>
+          {waiting && (
+            <Badge tone="attention">
+              <Hourglass aria-hidden="true" className="size-3" />
+              Drying until {formatDateTime(stage.waitUntil!, timezone)}
+            </Badge>
           )}
         </div>
         <div className="flex flex-wrap items-center gap-3">
@@ -88,7 +91,7 @@ export function StageRow({
             value={stage.status}
             disabled={locked || update.isPending}
             onChange={(e) => void save({ stageId: stage.id, status: e.target.value as Stage['status'] })}
-            className="min-h-8 rounded-control border border-sable-600 bg-white px-2 text-sm"
+            className="min-h-8 w-28 rounded-control border border-sable-600 bg-white px-2 text-sm"
           >
             {stageStatuses.map((s) => (
               <option key={s} value={s}>
@@ -121,50 +124,34 @@ export function StageRow({
             />
             <span aria-hidden="true">h</span>
           </span>
-          {stage.loggedHours !== null && <span className="figures text-sm text-sable-600">{h(stage.loggedHours)} h logged</span>}
+          {stage.loggedHours !== null && <span className="figures w-24 text-right text-sm text-sable-600">{h(stage.loggedHours)} h logged</span>}
         </div>
       </div>
-      <div className="flex flex-wrap items-center gap-2 text-xs text-sable-600">
+      <div className="flex flex-wrap items-center gap-x-3 gap-y-1 text-xs text-sable-600">
         {stage.doneBy && stage.doneAt && (
           <span>
             {stage.status === 'done' ? 'Done' : 'Last done'} by {stage.doneBy.name}, {formatDateTime(stage.doneAt, timezone)}
           </span>
         )}
-        {stage.waitHours > 0 && !stage.waitUntil && <span>Then wait {h(stage.waitHours)} h to dry</span>}
-        {stage.waitUntil && (
-          <Badge tone={waiting ? 'attention' : 'neutral'}>
-            <Hourglass aria-hidden="true" className="size-3" />
-            {waiting ? 'Drying until' : 'Dry since'} {formatDateTime(stage.waitUntil, timezone)}
-          </Badge>
+        {stage.waitHours > 0 && stage.status !== 'done' && <span>Then {h(stage.waitHours)} h to dry</span>}
+        {stage.hazards.length > 0 && (
+          <button type="button" aria-expanded={showSafety} onClick={() => setShowSafety((o) => !o)} className={toggle}>
+            <TriangleAlert aria-hidden="true" className="size-4" />
+            Safety for {stage.name}
+            <ChevronDown aria-hidden="true" className={cn('size-4 transition-transform', showSafety && 'rotate-180')} />
+          </button>
         )}
-      </div>
-      {stage.hazards.length > 0 &&
-        (current ? (
-          <SafetyNote keys={stage.hazards} hazards={hazards} />
-        ) : (
-          <details className="text-sm">
-            <summary className="cursor-pointer text-sable-600">Safety for {stage.name}</summary>
-            <SafetyNote keys={stage.hazards} hazards={hazards} className="mt-2" />
-          </details>
-        ))}
-      {(timer || timeLog) && (
-        <div className="flex flex-wrap items-center gap-2">
-          {timer}
-          {timeLog && (
-          <button
-            type="button"
-            aria-expanded={openTime}
-            onClick={() => setOpenTime((o) => !o)}
-            className="inline-flex min-h-8 items-center gap-1 rounded-control px-1 text-sm text-verdigris-600 hover:bg-verdigris-100"
-          >
+        {timer}
+        {timeLog && (
+          <button type="button" aria-expanded={openTime} onClick={() => setOpenTime((o) => !o)} className={toggle}>
             <Clock aria-hidden="true" className="size-4" />
-            Time log
+            Time on {stage.name}
             <ChevronDown aria-hidden="true" className={cn('size-4 transition-transform', openTime && 'rotate-180')} />
           </button>
-          )}
-          {openTime && <div className="w-full">{timeLog}</div>}
-        </div>
-      )}
+        )}
+      </div>
+      {showSafety && <SafetyNote keys={stage.hazards} hazards={hazards} className="mt-1" />}
+      {openTime && <div className="mt-1">{timeLog}</div>}
     </li>
   );
 }

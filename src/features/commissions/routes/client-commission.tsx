@@ -84,7 +84,7 @@ export function ClientCommissionRoute({
             <div className="sm:col-span-2">
               <dt className="sr-only">Progress</dt>
               <dd>
-                <ProgressBar progress={c.progress} label={`Progress of ${c.title}`} />
+                <ProgressBar progress={c.progress} label={`Progress of ${c.title}`} hours={false} />
               </dd>
             </div>
             {c.brief && (
@@ -104,7 +104,7 @@ export function ClientCommissionRoute({
 
         <ClientParcel studioId={studioId} commissionId={c.id} commissionStatus={c.status} timezone={timezone} />
 
-        <Section id="approvals" title="Waiting for your answer">
+        <Section id="approvals" title="Approvals">
           <ClientApprovals studioId={studioId} commissionId={c.id} timezone={timezone} />
         </Section>
 

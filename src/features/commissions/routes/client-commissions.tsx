@@ -37,9 +37,16 @@ export function ClientCommissionsRoute({ greeting }: { greeting: string }) {
                 <StatusBadge status={c.status} />
               </div>
               <p className="mt-1 text-sm text-sable-600">
-                {c.modelCount} {c.modelCount === 1 ? 'figure' : 'figures'} · due <DueDate date={c.dueDate} status={c.status} timezone={timezone} />
+                {c.modelCount} {c.modelCount === 1 ? 'figure' : 'figures'} ·{' '}
+                {c.dueDate ? (
+                  <>
+                    due <DueDate date={c.dueDate} status={c.status} timezone={timezone} />
+                  </>
+                ) : (
+                  'no due date yet'
+                )}
               </p>
-              <ProgressBar progress={c.progress} label={`Progress of ${c.title}`} className="mt-2" />
+              <ProgressBar progress={c.progress} label={`Progress of ${c.title}`} className="mt-2" hours={false} />
             </li>
           ))}
         </ul>

@@ -100,7 +100,7 @@ export function CommissionsListRoute() {
             )}
           </div>
         </div>
-        <div className="basis-48">
+        <div className="basis-56">
           <label htmlFor="commission-status" className="mb-1 block text-sm font-medium">
             Status
           </label>
@@ -110,7 +110,7 @@ export function CommissionsListRoute() {
             onChange={(e) => set('status', e.target.value === 'active' ? null : e.target.value)}
             className="min-h-10 w-full rounded-control border border-sable-600 bg-white px-3 text-base"
           >
-            <option value="active">Open (not yet shipped)</option>
+            <option value="active">Open</option>
             <option value="all">All</option>
             {commissionStatuses.map((s) => (
               <option key={s} value={s}>

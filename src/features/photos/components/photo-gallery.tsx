@@ -10,6 +10,7 @@ import { Lightbox, photoAlt } from './lightbox';
 import { Switch } from './switch';
 
 function StudioControls({ studioId, photo, label }: { studioId: number; photo: Photo; label: string }) {
+  const fromClient = photo.kind === 'reference';
   const update = useUpdatePhoto(studioId);
   const remove = useRemovePhoto(studioId);
   const toast = useToast();
@@ -19,6 +20,9 @@ function StudioControls({ studioId, photo, label }: { studioId: number; photo: P
 
   return (
     <div className="flex flex-col gap-2">
+      {fromClient ? (
+        <p className="text-xs text-sable-600">From the client{photo.uploadedBy ? ` (${photo.uploadedBy.name})` : ''}</p>
+      ) : (
       <Switch
         checked={photo.shared}
         disabled={update.isPending}
@@ -27,6 +31,7 @@ function StudioControls({ studioId, photo, label }: { studioId: number; photo: P
           update.mutateAsync({ photoId: photo.id, shared: v }).then(() => toast.show(v ? 'The client can see this photo now.' : 'Only the studio sees this photo now.'), fail)
         }
       />
+      )}
       {editing ? (
         <form
           className="flex flex-col gap-1"
@@ -113,8 +118,8 @@ export function PhotoGallery({
                 <img src={p.urls.thumb} alt="" loading="lazy" width={320} height={Math.round((320 * p.height) / Math.max(1, p.width))} className="aspect-[4/3] w-full bg-primer-100 object-cover" />
               </button>
               <div className="flex flex-wrap gap-1">
-                <Badge>{photoKindLabels[p.kind]}</Badge>
-                {manage && p.shared && <Badge tone="info">Client sees it</Badge>}
+                {(manage || p.kind !== 'progress') && <Badge>{photoKindLabels[p.kind]}</Badge>}
+                {!manage && p.kind === 'reference' && p.uploadedBy && <Badge tone="info">From {p.uploadedBy.name}</Badge>}
               </div>
               {p.caption && <p className="text-sm break-words">{p.caption}</p>}
               {extra && <p className="text-xs text-sable-600">{extra}</p>}

@@ -7,7 +7,7 @@ import { useTimer } from '../api/get-timer';
 import { useElapsed } from './elapsed';
 
 /** Start or stop the person's timer on one stage; starting it here stops one running elsewhere. */
-export function StageTimer({ studioId, stageId, stageName, figureName, size = 'sm' }: { studioId: number; stageId: number; stageName: string; figureName: string; size?: 'sm' | 'md' }) {
+export function StageTimer({ studioId, stageId, stageName, figureName, size = 'sm', short = false }: { studioId: number; stageId: number; stageName: string; figureName: string; size?: 'sm' | 'md'; short?: boolean }) {
   const timer = useTimer(studioId);
   const start = useStartTimer(studioId);
   const stop = useStopTimer(studioId);
@@ -53,7 +53,7 @@ export function StageTimer({ studioId, stageId, stageName, figureName, size = 's
       }}
     >
       <Play aria-hidden="true" className="size-4" />
-      Start timer
+      {short ? 'Timer' : 'Start timer'}
     </Button>
   );
 }
