@@ -7,6 +7,7 @@ import { commissionsDemo } from './demo-commissions';
 import { enquiriesDemo } from './demo-enquiries';
 import { paintsDemo } from './demo-paints';
 import { photosDemo } from './demo-photos';
+import { booksHistoryDemo, capacityDemo } from './demo-capacity';
 import { moneyDemo } from './demo-money';
 
 /**
@@ -28,7 +29,10 @@ demoSteps.push(commissionsDemo);
 demoSteps.push(enquiriesDemo);
 demoSteps.push(paintsDemo);
 demoSteps.push(photosDemo);
+// Finished work of the past months first, so its invoice numbers come before the money step's.
+demoSteps.push(booksHistoryDemo);
 demoSteps.push(moneyDemo);
+demoSteps.push(capacityDemo);
 
 export async function seedDemo(db: Db, deps: { clock: Clock; hash: (p: string) => Promise<string>; studios: StudiosService; photoStorage?: FileStorage }) {
   const now = iso(deps.clock.now());

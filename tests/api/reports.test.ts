@@ -28,9 +28,9 @@ async function insert(table: string, row: Record<string, unknown>) {
   return idOf((await sw.db(table).insert(row).returning('id'))[0]);
 }
 
-async function figureWithStages(commissionId: number, quantity: number, stages: [key: string, estimate: number, logged: number][]) {
+async function figureWithStages(commissionId: number, quantity: number, stages: [key: string, estimate: number, logged: number][], sizeClass = '28') {
   const t = now();
-  const f = await insert('figures', { studio_id: studioId, commission_id: commissionId, name: `Figure ×${quantity}`, quantity, size_class: '28', tier: 'tabletop', painter_id: painterId, created_at: t, updated_at: t });
+  const f = await insert('figures', { studio_id: studioId, commission_id: commissionId, name: `Figure ×${quantity}`, quantity, size_class: sizeClass, tier: 'tabletop', painter_id: painterId, created_at: t, updated_at: t });
   for (const [position, [key, estimate, logged]] of stages.entries()) {
     const s = await insert('stages', { studio_id: studioId, commission_id: commissionId, figure_id: f, template_key: key, name: key, position, status: 'done', estimate_minutes: estimate, done_at: t, updated_at: t });
     if (logged > 0) {
@@ -74,6 +74,9 @@ beforeAll(async () => {
   await figureWithStages(k.K2, 1, [['basecoat', 30, 48], ['layer', 60, 72], ['details', 20, 0]]);
   await figureWithStages(k.K3, 4, [['basecoat', 96, 96], ['layer', 192, 192]]);
   await figureWithStages(k.cancelled, 1, [['basecoat', 30, 600]]);
+  // A vehicle, quoted apart: it counts in the per-stage totals and has its own cell, but stays out of the fit.
+  k.K4 = await commission('K4');
+  await figureWithStages(k.K4, 1, [['prep', 120, 90]], 'large');
 });
 afterAll(() => sw.stop());
 
@@ -82,26 +85,30 @@ describe('GET /reports/actuals', () => {
     const res = await owner.get(`${base}/reports/actuals`);
     expect(res.status).toBe(200);
     const r = res.body;
-    expect([r.doneStages, r.doneWithoutTime]).toEqual([6, 1]);
+    expect([r.doneStages, r.doneWithoutTime]).toEqual([7, 1]);
     // basecoat: 30 + 30 + 96 = 156 min = 2.6 h estimated, 45 + 48 + 96 = 189 min = 3.15 h logged, 189/156 − 1 = 0.2115…
     // layer: 60 + 60 + 192 = 312 min = 5.2 h, 60 + 72 + 192 = 324 min = 5.4 h, 324/312 − 1 = 0.0384…
+    // prep (the vehicle): 120 min = 2 h estimated, 90 min = 1.5 h logged: −0.25.
     expect(r.byStage.map((s: { key: string; count: number; estimatedHours: number; loggedHours: number; difference: number }) => [s.key, s.count, s.estimatedHours, s.loggedHours, s.difference])).toEqual([
+      ['prep', 1, 2, 1.5, -0.25],
       ['basecoat', 3, 2.6, 3.15, 0.212],
       ['layer', 3, 5.2, 5.4, 0.038],
     ]);
-    // 468 min = 7.8 h against 513 min = 8.55 h: 513/468 − 1 = 0.0961…
-    expect(r.totals).toEqual({ estimatedHours: 7.8, loggedHours: 8.55, difference: 0.096 });
-    expect(r.recent).toHaveLength(6);
+    // 588 min = 9.8 h against 603 min = 10.05 h: 603/588 − 1 = 0.0255…
+    expect(r.totals).toEqual({ estimatedHours: 9.8, loggedHours: 10.05, difference: 0.026 });
+    expect(r.recent).toHaveLength(7);
   });
 
   it('gives the median one-figure hours per cell with the count behind it, and suggests table changes', async () => {
     const r = (await owner.get(`${base}/reports/actuals`)).body;
     // basecoat: F1 0.75 h, F2 0.8 h, F3 96 min / 2.56 = 37.5 min = 0.625 h → median 0.75 (table 0.5).
     // layer: F1 1.0 h, F2 1.2 h, F3 192 min / 2.56 = 75 min = 1.25 h → median 1.2 (table 1.0).
-    expect(r.cells.map((c: { sizeClass: string; tier: string; stage: string; medianHours: number; count: number; tableHours: number }) => [c.sizeClass, c.tier, c.stage, c.medianHours, c.count, c.tableHours])).toEqual([
+    const cells = r.cells.map((c: { sizeClass: string; tier: string; stage: string; medianHours: number; count: number; tableHours: number }) => [c.sizeClass, c.tier, c.stage, c.medianHours, c.count, c.tableHours]);
+    expect(cells.slice(0, 2)).toEqual([
       ['28', 'tabletop', 'basecoat', 0.75, 3, 0.5],
       ['28', 'tabletop', 'layer', 1.2, 3, 1],
     ]);
+    expect(cells[2].slice(0, 5)).toEqual(['large', 'tabletop', 'prep', 1.5, 1]);
     // +50 % and +20 %: both past the 10 % threshold with 3 done stages each.
     expect(r.suggestions.map((s: { stage: string; tableHours: number; suggestedHours: number; change: number; stageLabel: string }) => [s.stage, s.stageLabel, s.tableHours, s.suggestedHours, Math.round(s.change * 1000) / 1000])).toEqual([
       ['basecoat', 'Basecoat', 0.5, 0.75, 0.5],
@@ -112,7 +119,7 @@ describe('GET /reports/actuals', () => {
   it('fits the batch learning rate from the figures and shows it beside the table’s', async () => {
     const r = (await owner.get(`${base}/reports/actuals`)).body;
     // Points (quantity, logged h / table h for one figure over the same stages, 1.5 h):
-    //   F1 (1, 1.75/1.5), F2 (1, 2.0/1.5), F3 (4, 4.8/1.5 = 3.2).
+    //   F1 (1, 1.75/1.5), F2 (1, 2.0/1.5), F3 (4, 4.8/1.5 = 3.2). The vehicle is not a point.
     // x = 0, 0, ln 4; mean ln4/3; Sxx = (2/3)(ln 4)²; Sxy = (ln 4/3)(2·y3 − y1 − y2);
     // slope = (2·y3 − y1 − y2) / (2 ln 4) = ln(3.2² / ((1.75/1.5)(2/1.5))) / ln 16; r = 2^(slope − 1).
     const slope = Math.log((3.2 * 3.2) / ((1.75 / 1.5) * (2 / 1.5))) / Math.log(16);

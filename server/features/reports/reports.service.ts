@@ -132,9 +132,11 @@ export function reportsService(deps: { repo: ReportsRepository; priceTables: Pri
       });
 
       // One point per figure: its logged hours on the done stages against the table's hours for one such
-      // figure on the same stages (extras included), so the fit sees only the batch effect.
+      // figure on the same stages (extras included), so the fit sees only the batch effect. Large figures
+      // (vehicles, monsters) are quoted apart, so the table's one "large" cell is no yardstick for them.
       const figures = new Map<number, { quantity: number; hours: number; unitHours: number; ok: boolean }>();
       for (const r of withTime) {
+        if (r.size_class === 'large') continue;
         const f = figures.get(r.figure_id) ?? { quantity: r.quantity, hours: 0, unitHours: 0, ok: true };
         const base = cell({ sizeClass: r.size_class, tier: r.tier, stage: r.template_key });
         if (base === undefined) f.ok = false;
@@ -159,7 +161,10 @@ export function reportsService(deps: { repo: ReportsRepository; priceTables: Pri
           loggedHours: h(r.logged_minutes),
         })),
         cells: cells.map((c) => ({ ...c, ...labels(c), medianHours: Math.round(c.medianHours * 100) / 100, tableHours: cell(c) ?? null })),
-        suggestions: suggestCells(cells, cell).map((s) => ({ ...s, ...labels(s), medianHours: Math.round(s.medianHours * 100) / 100 })),
+        suggestions: suggestCells(
+          cells.filter((c) => c.sizeClass !== 'large'),
+          cell,
+        ).map((s) => ({ ...s, ...labels(s), medianHours: Math.round(s.medianHours * 100) / 100 })),
         learningRate: { table: table.learningRate, fitted: fitLearningRate(points), batches: points.length },
       };
     },
