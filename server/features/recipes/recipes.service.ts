@@ -40,7 +40,7 @@ function stepView(step: StepRow, paints: StepPaint[]): RecipeStep {
     step.dilution_with && step.dilution_paint_parts !== null
       ? { diluent: step.dilution_diluent_parts ?? 0, paint: step.dilution_paint_parts, with: step.dilution_with }
       : null;
-  const airbrush = Boolean(step.airbrush);
+  const airbrush = Boolean(step.airbrush) || step.technique === 'airbrush';
   return {
     id: step.id,
     position: step.position,

@@ -26,12 +26,12 @@ function ColourActions({ photoId, hex, matches }: { photoId: number; hex: string
   const { studioId } = useStudioScope();
   return (
     <div className="flex flex-wrap gap-2">
-      <ButtonLink to={recipeLink(studioId, photoId, hex, matches)} size="sm">
+      <ButtonLink to={recipeLink(studioId, photoId, hex, matches)} size="sm" aria-label={`Start a recipe from this colour, ${hex}`}>
         <Sparkles aria-hidden="true" className="size-4" />
         Start a recipe from this colour
       </ButtonLink>
       {(!matches[0] || matches[0].band === 'far') && (
-        <ButtonLink to={`/studio/${studioId}/paints/new?hex=${encodeURIComponent(hex)}`} size="sm" variant="secondary">
+        <ButtonLink to={`/studio/${studioId}/paints/new?hex=${encodeURIComponent(hex)}`} size="sm" variant="secondary" aria-label={`Add a paint in this colour, ${hex}`}>
           <Plus aria-hidden="true" className="size-4" />
           Add a paint in this colour
         </ButtonLink>

@@ -185,7 +185,7 @@ export function RecipeEditor({
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6">
       {formError && <ErrorNote>{formError}</ErrorNote>}
       <div className="grid gap-4 sm:grid-cols-2">
-        <TextField label="Recipe name" placeholder="Washed denim" autoComplete="off" error={errors.name} {...register('name')} />
+        <TextField label="Recipe name" placeholder="e.g. washed denim" autoComplete="off" error={errors.name} {...register('name')} />
         <Controller
           control={control}
           name="colour"
@@ -201,7 +201,7 @@ export function RecipeEditor({
             />
           )}
         />
-        <TextArea label="What it is for" optional rows={2} className="sm:col-span-2" placeholder="Trousers and caps of the militia." error={errors.description} {...register('description')} />
+        <TextArea label="What it is for" optional rows={2} className="sm:col-span-2" error={errors.description} {...register('description')} />
       </div>
 
       <fieldset className="flex flex-col gap-4">
@@ -397,7 +397,7 @@ function StepEditor({
           {step.thinned && (
             <>
               <div className="flex flex-wrap items-end gap-2">
-                <TextField label="Parts thinner" type="number" inputMode="numeric" min={0} className="figures w-28" error={err('diluent')} {...register(`${p}.diluent`)} />
+                <TextField label={`Parts ${diluentLabels[step.with] ?? "water"}`} type="number" inputMode="numeric" min={0} className="figures w-28" error={err('diluent')} {...register(`${p}.diluent`)} />
                 <span className="pb-2 text-lg" aria-hidden="true">
                   :
                 </span>
@@ -439,7 +439,7 @@ function StepEditor({
       </div>
 
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label="Tool" optional placeholder="Size 1 round" autoComplete="off" error={err('tool')} {...register(`${p}.tool`)} />
+        <TextField label="Tool" optional placeholder="e.g. size 1 round" autoComplete="off" error={err('tool')} {...register(`${p}.tool`)} />
         <TextArea label="Notes" optional rows={2} error={err('notes')} {...register(`${p}.notes`)} />
       </div>
       <SafetyCaution className="mt-3" keys={stepHaz} texts={hazards} />

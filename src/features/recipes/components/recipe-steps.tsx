@@ -76,7 +76,17 @@ export function RecipeSteps({ recipe, hazards }: { recipe: Recipe; hazards: Haza
               <span className="figures text-sable-600">{i + 1}.</span> {techniqueLabels[s.technique]}
             </h3>
             {s.dilution && <span className="text-sm">Thinned {formatDilution(s.dilution)}</span>}
-            {s.airbrush && <span className="text-sm">Airbrush{s.psi !== null && <> at <span className="figures">{formatPsi(s.psi, s.bar)}</span></>}</span>}
+            {s.airbrush && (s.technique !== 'airbrush' || s.psi !== null) && (
+              <span className="text-sm">
+                {s.technique === 'airbrush' ? 'At' : 'With an airbrush'}
+                {s.psi !== null && (
+                  <>
+                    {s.technique === 'airbrush' ? ' ' : ' at '}
+                    <span className="figures">{formatPsi(s.psi, s.bar)}</span>
+                  </>
+                )}
+              </span>
+            )}
             {s.tool && <span className="text-sm text-sable-600">Tool: {s.tool}</span>}
           </div>
           <StepMixView step={s} />

@@ -58,9 +58,10 @@ function ClientSchemeView({ scheme }: { scheme: ClientScheme }) {
   if (scheme.entries.length === 0) return <p className="text-sm text-sable-600">The studio has not set out the colours yet. They will show here as swatches.</p>;
   return (
     <div className="flex flex-col gap-4" data-testid="scheme-swatches">
+      <h3 className="text-base font-semibold">The colours the studio has chosen</h3>
       {groupByFigure(scheme.entries).map((g) => (
         <div key={g.figure?.id ?? 'all'}>
-          <h3 className="mb-2 text-sm font-semibold text-sable-600">{g.figure ? g.figure.name : 'All figures'}</h3>
+          <h4 className="mb-2 text-sm font-semibold text-sable-600">{g.figure ? g.figure.name : 'All figures'}</h4>
           <ul className="grid gap-3 sm:grid-cols-2">
             {g.entries.map((e) => (
               <li key={e.id} className="flex items-center gap-3 rounded-card border border-primer-300 bg-bone-50 p-3">
@@ -204,7 +205,7 @@ function AddEntryForm({ commissionId, figures }: { commissionId: number; figures
             </option>
           ))}
         </SelectField>
-        <TextField label="Area" placeholder="Cloak" value={area} onChange={(e) => setArea(e.target.value)} error={errors.area} autoComplete="off" />
+        <TextField label="Area" placeholder="e.g. cloak" value={area} onChange={(e) => setArea(e.target.value)} error={errors.area} autoComplete="off" />
         <SelectField label="Recipe" value={recipeId} onChange={(e) => setRecipeId(e.target.value)} error={errors.recipeId} disabled={recipes.isPending}>
           <option value="">{recipes.isPending ? 'Loading recipes…' : 'Choose a recipe…'}</option>
           {recipes.data?.map((r) => (
