@@ -124,7 +124,7 @@ export function StageRow({
             />
             <span aria-hidden="true">h</span>
           </span>
-          {stage.loggedHours !== null && <span className="figures w-24 text-right text-sm text-sable-600">{h(stage.loggedHours)} h logged</span>}
+          {stage.loggedHours !== null && <span className="figures text-sm text-sable-600 sm:w-24 sm:text-right">{h(stage.loggedHours)} h logged</span>}
         </div>
       </div>
       <div className="flex flex-wrap items-center gap-x-3 gap-y-1 text-xs text-sable-600">

@@ -72,7 +72,7 @@ export function Lightbox({
       onClick={(e) => {
         if (e.target === ref.current) onClose();
       }}
-      className="m-auto h-dvh max-h-none w-dvw max-w-none bg-sable-900/95 p-0 text-white backdrop:bg-sable-900/80"
+      className="m-auto h-dvh max-h-none w-dvw max-w-none bg-sable-900/95 p-0 text-white backdrop:bg-sable-900/80 [&_*:focus-visible]:outline-white"
     >
       {photo && (
         <div className="flex h-full flex-col">

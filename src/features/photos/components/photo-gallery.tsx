@@ -60,15 +60,15 @@ function StudioControls({ studioId, photo, label }: { studioId: number; photo: P
           </div>
         </form>
       ) : (
-        <div className="flex gap-1">
-          <Button variant="ghost" size="sm" aria-label={`Change the caption of ${label}`} onClick={() => setEditing(true)}>
+        <div className="flex flex-wrap gap-1">
+          <Button variant="ghost" size="sm" className="px-2" aria-label={`Change the caption of ${label}`} onClick={() => setEditing(true)}>
             <Pencil aria-hidden="true" className="size-4" />
             Caption
           </Button>
           <Button
             variant="ghost"
             size="sm"
-            className="text-oxide-600"
+            className="px-2 text-oxide-600"
             aria-label={`Delete ${label}`}
             loading={remove.isPending}
             onClick={() => {

@@ -207,7 +207,10 @@ export function PhotoUploader({
                 aria-label={`Upload of ${i.name}`}
                 max={100}
                 value={i.percent}
-                className="h-1.5 w-full overflow-hidden rounded-full [&::-moz-progress-bar]:bg-verdigris-600 [&::-webkit-progress-bar]:bg-primer-300 [&::-webkit-progress-value]:bg-verdigris-600"
+                className={cn(
+                  'h-1.5 w-full overflow-hidden rounded-full [&::-webkit-progress-bar]:bg-primer-300',
+                  i.state === 'failed' ? '[&::-moz-progress-bar]:bg-oxide-600 [&::-webkit-progress-value]:bg-oxide-600' : '[&::-moz-progress-bar]:bg-verdigris-600 [&::-webkit-progress-value]:bg-verdigris-600',
+                )}
               />
               {i.message && <span className={cn('text-xs', i.state === 'failed' ? 'text-oxide-600' : 'text-sable-600')}>{i.message}</span>}
             </li>
