@@ -32,7 +32,7 @@ export function InvoicesTable({ invoices, caption, timezone, showClient, base }:
               </span>
               <span className="sr-only">{invoiceTitle(inv)}</span>
             </Td>
-            {showClient && <Td className="hidden md:table-cell">{inv.client.name}</Td>}
+            {showClient && <Td className="hidden whitespace-nowrap md:table-cell">{inv.client.name}</Td>}
             <Td className="figures hidden whitespace-nowrap sm:table-cell">{inv.issuedAt ? formatDate(inv.issuedAt, timezone) : '—'}</Td>
             <Td className="figures hidden whitespace-nowrap lg:table-cell">{inv.dueDate ? formatDay(inv.dueDate) : '—'}</Td>
             <Td className="figures text-right whitespace-nowrap">{formatMoney(inv.total, inv.currency)}</Td>

@@ -75,7 +75,7 @@ function StatusNote({ invoice, role }: { invoice: Invoice; role: string }) {
   const m = (minor: number) => formatMoney(minor, invoice.currency);
   switch (invoice.status) {
     case 'paid':
-      return <Note>Paid in full — thank you{role === 'owner' ? ' (as the client sees it)' : ''}.</Note>;
+      return <Note>{role === 'owner' ? 'Paid in full.' : 'Paid in full — thank you.'}</Note>;
     case 'void':
       return <Note>This invoice was voided: nothing is owed on it.</Note>;
     case 'refunded':

@@ -63,10 +63,15 @@ export function InvoicePaidRoute() {
                   {inv.kind === 'deposit' && ' Your commission is booked and joins the queue.'}
                 </p>
                 <p className="text-sm text-sable-600">A receipt is on its way by e-mail.</p>
-                <p>
+                <p className="flex flex-wrap gap-x-4 gap-y-1">
                   <Link to=".." relative="path">
                     See the invoice
                   </Link>
+                  {role === 'client' && (
+                    <Link to="../../.." relative="path">
+                      Back to your commissions
+                    </Link>
+                  )}
                 </p>
               </div>
             </div>

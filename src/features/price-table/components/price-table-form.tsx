@@ -51,7 +51,7 @@ function firstTierWithErrors(errors: FieldErrors<PriceDraft>, tiers: PriceDraft[
 /** How a learning rate plays out, in words: "2 figures take 1.8 times as long as one, …". */
 function BatchExample({ rate }: { rate: string }) {
   const r = Number(rate);
-  if (!/^(0(\.\d+)?|1(\.0+)?)$/.test(rate.trim()) || r < 0.5 || r > 1) return null;
+  if (!/^(0(\.\d+)?|1(\.0+)?)$/.test(rate.trim()) || r < 0.5 || r > 1) return <p className="text-sm text-sable-600">Enter a rate from 0.5 to 1 to see what it does.</p>;
   const f = (n: number) => (Math.round(learningCurveFactor(n, r) * 10) / 10).toLocaleString(undefined, { maximumFractionDigits: 1 });
   return (
     <p className="figures text-sm text-sable-900">
@@ -234,16 +234,16 @@ export function PriceTableForm({ table }: { table: PriceTable }) {
             error={errorAt(errors, 'quoteValidityDays')}
             {...register('quoteValidityDays')}
           />
-          <div className="flex flex-col gap-2 sm:col-span-2">
-            <TextField
-              label="Batch saving (learning rate)"
-              className="figures max-w-xs"
-              inputMode="decimal"
-              autoComplete="off"
-              hint="From 0.5 to 1. At 0.9, each time the number of identical figures doubles, the average time per figure falls to 90 %. 1 means no saving."
-              error={errorAt(errors, 'learningRate')}
-              {...register('learningRate')}
-            />
+          <TextField
+            label="Batch saving (learning rate)"
+            className="figures"
+            inputMode="decimal"
+            autoComplete="off"
+            hint="From 0.5 to 1. At 0.9, each time the number of identical figures doubles, the average time per figure falls to 90 %. 1 means no saving."
+            error={errorAt(errors, 'learningRate')}
+            {...register('learningRate')}
+          />
+          <div className="self-center rounded-control border border-primer-300 bg-white p-3">
             <BatchExample rate={learningRate} />
           </div>
           <label className="flex items-start gap-2 text-sm sm:col-span-2">

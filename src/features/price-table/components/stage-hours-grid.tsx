@@ -89,7 +89,7 @@ export function StageHoursGrid({ register, control, errors, stages, tiers, tier,
 
   return (
     <div className="flex flex-col gap-3">
-      <div role="tablist" aria-label="Tier" className="flex flex-wrap gap-1 border-b border-primer-300">
+      <div role="tablist" aria-label="Tier to edit" className="flex flex-wrap gap-1 border-b border-primer-300">
         {tiers.map((t, i) => {
           const selected = t.key === tier;
           const n = countErrors(errors, t.key);
@@ -124,15 +124,15 @@ export function StageHoursGrid({ register, control, errors, stages, tiers, tier,
             <caption className="sr-only">Hours per stage for one {tierLabel} figure, by base size</caption>
             <thead>
               <tr className="border-b border-primer-300 text-xs text-sable-600">
-                <th scope="col" className="sticky left-0 z-10 bg-white px-3 py-2 text-left font-semibold">
+                <th scope="col" className="sticky left-0 z-10 bg-white px-2 py-2 text-left align-bottom font-semibold">
                   Base size
                 </th>
                 {stages.map((s) => (
-                  <th key={s.key} scope="col" className="px-1 py-2 text-right font-semibold whitespace-nowrap">
+                  <th key={s.key} scope="col" className="w-14 px-0.5 py-2 text-right align-bottom leading-tight font-semibold">
                     {s.label}
                   </th>
                 ))}
-                <th scope="col" className="px-3 py-2 text-right font-semibold">
+                <th scope="col" className="px-2 py-2 text-right align-bottom leading-tight font-semibold">
                   Per figure
                 </th>
               </tr>
@@ -140,14 +140,14 @@ export function StageHoursGrid({ register, control, errors, stages, tiers, tier,
             <tbody>
               {sizeClasses.map((size, r) => (
                 <tr key={size} className="border-b border-primer-300 last:border-b-0">
-                  <th scope="row" className="sticky left-0 z-10 bg-white px-3 py-1 text-left font-medium whitespace-nowrap">
+                  <th scope="row" className="sticky left-0 z-10 bg-white px-2 py-1 text-left font-medium whitespace-nowrap">
                     {sizeClassLabels[size]}
                   </th>
                   {stages.map((s, c) => {
                     const path = `stageHours.${size}.${tier}.${s.key}` as const;
                     const message = errorAt(errors, path);
                     return (
-                      <td key={s.key} className="px-1 py-1">
+                      <td key={s.key} className="px-0.5 py-1">
                         <input
                           type="text"
                           inputMode="decimal"
@@ -156,8 +156,8 @@ export function StageHoursGrid({ register, control, errors, stages, tiers, tier,
                           aria-label={`${sizeClassLabels[size]}, ${s.label}, hours`}
                           aria-invalid={message ? true : undefined}
                           className={cn(
-                            'figures h-9 w-16 rounded-control border border-primer-300 bg-white px-2 text-right text-sm focus:border-verdigris-600',
-                            message && 'border-2 border-oxide-600',
+                            'figures h-9 w-14 rounded-control bg-white px-1.5 text-right text-sm',
+                            message ? 'border-2 border-oxide-600' : 'border border-primer-300 focus:border-verdigris-600',
                           )}
                           onKeyDown={(e) => move(e, r, c)}
                           {...register(path)}
@@ -165,7 +165,7 @@ export function StageHoursGrid({ register, control, errors, stages, tiers, tier,
                       </td>
                     );
                   })}
-                  <td className="figures px-3 py-1 text-right whitespace-nowrap text-sable-600">
+                  <td className="figures px-2 py-1 text-right whitespace-nowrap text-sable-600">
                     <RowTotal control={control} size={size} tier={tier} stages={stages} />
                   </td>
                 </tr>

@@ -37,14 +37,14 @@ export function TryPrices({ control }: { control: Control<PriceDraft> }) {
   return (
     <div className="flex flex-col gap-4">
       <div className="grid gap-4 sm:grid-cols-3">
-        <SelectField label="Base size" value={size} onChange={(e) => setSize(e.target.value as SizeClass)}>
+        <SelectField label="Example base size" value={size} onChange={(e) => setSize(e.target.value as SizeClass)}>
           {sizeClasses.map((s) => (
             <option key={s} value={s}>
               {sizeClassLabels[s]}
             </option>
           ))}
         </SelectField>
-        <SelectField label="Tier" value={tier} onChange={(e) => setTier(e.target.value)}>
+        <SelectField label="Example tier" value={tier} onChange={(e) => setTier(e.target.value)}>
           {(draft.tiers ?? []).map((t) => (
             <option key={t.key} value={t.key}>
               {t.label}
@@ -52,7 +52,7 @@ export function TryPrices({ control }: { control: Control<PriceDraft> }) {
           ))}
         </SelectField>
         <TextField
-          label="Identical figures"
+          label="Example: identical figures"
           className="figures"
           inputMode="numeric"
           value={qty}

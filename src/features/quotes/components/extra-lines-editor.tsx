@@ -34,9 +34,9 @@ export function ExtraLinesEditor({
           {lines.map((l, i) => {
             const p = `extraLines.${i}`;
             return (
-              <li key={i} className="grid gap-3 border-b border-primer-300 pb-4 last:border-b-0 sm:grid-cols-12 sm:items-start">
-                <TextField label="Line" className="sm:col-span-4" autoComplete="off" value={l.label} onChange={(e) => set(i, { label: e.target.value })} error={errors[`${p}.label`]} />
-                <SelectField label="Kind" className="sm:col-span-3" value={l.kind} onChange={(e) => set(i, { kind: e.target.value as ExtraLineKind })}>
+              <li key={i} className="grid grid-cols-2 gap-3 border-b border-primer-300 pb-4 last:border-b-0 sm:grid-cols-12 sm:items-start">
+                <TextField label="Line" className="col-span-2 sm:col-span-4" autoComplete="off" value={l.label} onChange={(e) => set(i, { label: e.target.value })} error={errors[`${p}.label`]} />
+                <SelectField label="Kind" className="col-span-2 sm:col-span-3" value={l.kind} onChange={(e) => set(i, { kind: e.target.value as ExtraLineKind })}>
                   {extraLineKinds.map((k) => (
                     <option key={k} value={k}>
                       {kindLabels[k]}
@@ -61,7 +61,7 @@ export function ExtraLinesEditor({
                   onChange={(e) => set(i, { unitAmount: e.target.value })}
                   error={errors[`${p}.unitAmount`]}
                 />
-                <div className="flex items-center justify-between gap-2 sm:col-span-2 sm:flex-col sm:items-start sm:pt-6">
+                <div className="col-span-2 flex items-center justify-between gap-2 sm:flex-col sm:items-start sm:pt-6">
                   <label className="flex min-h-8 items-center gap-2 text-sm">
                     <input type="checkbox" className="size-4 accent-verdigris-600" checked={l.taxable} onChange={(e) => set(i, { taxable: e.target.checked })} />
                     Taxed

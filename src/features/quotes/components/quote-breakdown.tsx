@@ -34,7 +34,7 @@ export function QuoteBreakdown({ breakdown, minutes, caption = 'Quote lines', co
             <Tr>
               <Th>What</Th>
               <Th className="text-right">Qty</Th>
-              {showHours && <Th className={cn('text-right', compact && 'hidden sm:table-cell')}>Hours</Th>}
+              {showHours && !compact && <Th className="text-right">Hours</Th>}
               <Th className="text-right">Amount</Th>
             </Tr>
           </THead>
@@ -45,10 +45,12 @@ export function QuoteBreakdown({ breakdown, minutes, caption = 'Quote lines', co
                 <Tr key={i}>
                   <Td className="break-words">
                     <span className="font-medium">{l.label}</span>
-                    {l.detail && <span className="block text-xs text-sable-600">{l.detail}</span>}
+                    {compact
+                      ? mins !== null && mins !== undefined && <span className="figures block text-xs text-sable-600">{formatHours(mins)}</span>
+                      : l.detail && <span className="block text-xs text-sable-600">{l.detail}</span>}
                   </Td>
                   <Td className="figures text-right">{l.quantity}</Td>
-                  {showHours && <Td className={cn('figures text-right whitespace-nowrap', compact && 'hidden sm:table-cell')}>{mins === null || mins === undefined ? '—' : formatHours(mins)}</Td>}
+                  {showHours && !compact && <Td className="figures text-right whitespace-nowrap">{mins === null || mins === undefined ? '—' : formatHours(mins)}</Td>}
                   <Td className="figures text-right whitespace-nowrap">{m(l.amount)}</Td>
                 </Tr>
               );

@@ -1,7 +1,8 @@
 import { useMemo, useState } from 'react';
 import { Send } from 'lucide-react';
+import { formatMoney } from '../../../../shared/money';
 import { unscheduledLabels } from '../../../../shared/schemas/schedule';
-import { formatBasisPoints, formatHours, QuoteInputError, quoteFigures, type FigureQuoteLine, type QuoteResult } from '../../../../shared/pricing';
+import { formatBasisPoints, QuoteInputError, quoteFigures, type FigureQuoteLine, type QuoteResult } from '../../../../shared/pricing';
 import type { PriceTable } from '../../../../shared/schemas/price-table';
 import type { Quote } from '../../../../shared/schemas/quotes';
 import { Button } from '../../../components/ui/button';
@@ -181,7 +182,13 @@ export function QuoteEditor({ quote, table }: { quote: Quote; table: PriceTable 
             )}
           </div>
         </section>
-        <div className="flex flex-wrap items-center gap-2">
+        {/* On a phone the preview sits below the form, so the total and the buttons stay in view at the bottom. */}
+        <div className="sticky bottom-16 z-20 -mx-2 flex flex-wrap items-center gap-2 rounded-card border border-primer-300 bg-bone-50 p-3 shadow-raised sm:bottom-4 lg:static lg:mx-0 lg:border-0 lg:bg-transparent lg:p-0 lg:shadow-none">
+          {result && (
+            <span className="figures w-full text-sm lg:hidden">
+              Total <span className="font-semibold">{formatMoney(result.total, result.currency)}</span> · deposit {formatMoney(result.deposit.amount, result.currency)}
+            </span>
+          )}
           <Button variant="secondary" onClick={save} loading={update.isPending} disabled={!canSave || !dirty}>
             Save draft
           </Button>
@@ -194,11 +201,6 @@ export function QuoteEditor({ quote, table }: { quote: Quote; table: PriceTable 
           </span>
         </div>
         {result && result.minimumTopUp > 0 && <Note>This order is below your minimum, so it is topped up to it.</Note>}
-        {result && result.totalMinutes > 0 && (
-          <p className="text-xs text-sable-600">
-            Bench time in all: <span className="figures">{formatHours(result.totalMinutes)}</span>
-          </p>
-        )}
       </div>
 
       <Dialog

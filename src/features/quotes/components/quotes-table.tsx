@@ -13,7 +13,6 @@ export function QuotesTable({ quotes, caption, timezone, forClient, base }: { qu
           <Th>Commission</Th>
           {!forClient && <Th className="hidden md:table-cell">Client</Th>}
           <Th className="hidden sm:table-cell">Sent</Th>
-          <Th className="hidden lg:table-cell">Valid until</Th>
           <Th className="text-right">Total</Th>
           <Th>Status</Th>
         </Tr>
@@ -32,10 +31,10 @@ export function QuotesTable({ quotes, caption, timezone, forClient, base }: { qu
             </Td>
             {!forClient && <Td className="hidden md:table-cell">{q.client.name}</Td>}
             <Td className="figures hidden whitespace-nowrap sm:table-cell">{q.sentAt ? formatDate(q.sentAt, timezone) : '—'}</Td>
-            <Td className="figures hidden whitespace-nowrap lg:table-cell">{q.status === 'sent' ? formatDay(q.validUntil) : '—'}</Td>
             <Td className="figures text-right whitespace-nowrap">{formatMoney(q.total, q.currency)}</Td>
             <Td>
               <QuoteStatusBadge status={q.status} forClient={forClient} />
+              {q.status === 'sent' && <span className="figures mt-1 block text-xs text-sable-600">Valid until {formatDay(q.validUntil)}</span>}
             </Td>
           </Tr>
         ))}

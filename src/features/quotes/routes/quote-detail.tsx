@@ -132,6 +132,11 @@ export function QuoteDetailRoute({
           {q.status === 'sent' && <span className="figures">Valid until {formatDay(q.validUntil)}</span>}
         </span>
       }
+      actions={
+        !forClient && !editing && versions.data ? (
+          <NewVersionButton studioId={studioId} commissionId={q.commissionId} versions={versions.data.items} quotesPath=".." variant={q.status === 'changes_requested' ? 'primary' : 'secondary'} />
+        ) : undefined
+      }
     />
   );
 
@@ -169,15 +174,10 @@ export function QuoteDetailRoute({
           <QuoteBreakdown breakdown={result.clientBreakdown} minutes={ownerMinutes} />
           {result.dueDate && <p className="mt-3 text-sm">Wanted by <span className="figures">{formatDay(result.dueDate)}</span>.</p>}
         </Card>
-        <Card title="Terms" description={forClient ? 'Please read these before you accept.' : 'As they were when this version was priced.'}>
+        <Card title="Terms" description={forClient ? (q.allowedActions.includes('accept') ? 'Please read these before you accept.' : undefined) : 'As they were when this version was priced.'}>
           {q.terms.trim() ? <div className="max-w-prose text-sm whitespace-pre-line">{q.terms}</div> : <p className="text-sm text-sable-600">No terms were set.</p>}
         </Card>
         {forClient && <ClientDecision studioId={studioId} quote={q} studioName={studioName} />}
-        {!forClient && versions.data && (
-          <div>
-            <NewVersionButton studioId={studioId} commissionId={q.commissionId} versions={versions.data.items} quotesPath=".." />
-          </div>
-        )}
         {versionList}
         {versions.error && (
           <Button variant="ghost" onClick={() => versions.refetch()}>
