@@ -72,9 +72,16 @@ const paintFields = z.object({
   notes: clearable(2000),
 });
 
+export const NEEDS_COLOUR_MESSAGE = 'Give the colour (a medium or varnish may go without).';
+/** True when a paint of this type must have a colour and has none. */
+export const colourMissing = (p: { type?: PaintType; hex?: string | null }) => Boolean(p.type && !colourlessTypes.includes(p.type) && !p.hex);
+
 const needsColour = (p: { type?: PaintType; hex?: string | null }, ctx: z.RefinementCtx) => {
-  if (p.type && !colourlessTypes.includes(p.type) && !p.hex) ctx.addIssue({ code: 'custom', path: ['hex'], message: 'Give the colour (a medium or varnish may go without).' });
+  if (colourMissing(p)) ctx.addIssue({ code: 'custom', path: ['hex'], message: NEEDS_COLOUR_MESSAGE });
 };
+
+/** The fields without the colour rule: a CSV without a Colour column may still update stock. */
+export const paintRowFields = paintFields;
 
 export const createPaintInput = paintFields.superRefine(needsColour);
 export type CreatePaintInput = z.infer<typeof createPaintInput>;

@@ -125,6 +125,15 @@ describe('paint rack CSV', () => {
     expect((await s.b.owner.get(`${B}/paints/export`)).text).toBe(csv);
   });
 
+  it('changes only the columns the file has, and still asks new paints for a colour', async () => {
+    const before = (await s.a.owner.get(`${A}/paints?q=rust`)).body.find((p: { name: string }) => p.name === 'Rust');
+    const res = await s.a.owner.post(`${A}/paints/import`, { csv: 'Name,Type,Pots in stock\nRust,Base,7\nBrand new,Base,1\n' });
+    expect(res.body).toMatchObject({ created: 0, updated: 1 });
+    expect(res.body.skipped).toEqual([{ line: 3, message: expect.stringMatching(/^Colour: .*no Colour column/) }]);
+    const after = (await s.a.owner.get(`${A}/paints/${before.id}`)).body;
+    expect(after).toMatchObject({ stock: 7, hex: before.hex, lowStockThreshold: before.lowStockThreshold, maker: before.maker });
+  });
+
   it('clients may not import', async () => {
     expect((await s.a.client.post(`${A}/paints/import`, { csv: 'Name,Type,Colour\nX,Base,#000000' })).status).toBe(403);
   });

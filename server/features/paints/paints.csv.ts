@@ -2,7 +2,7 @@
 // Import reports a bad row by the line it starts on and leaves it out; the rest goes on.
 import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
-import { createPaintInput, finishLabels, paintTypeLabels, paintTypes, finishes, type CreatePaintInput, type Finish, type Paint, type PaintType } from '../../../shared/schemas/paints';
+import { createPaintInput, paintRowFields, finishLabels, paintTypeLabels, paintTypes, finishes, type CreatePaintInput, type Finish, type Paint, type PaintType } from '../../../shared/schemas/paints';
 import { fieldErrors } from '../../lib/validate';
 
 export const MAX_IMPORT_ROWS = 5000;
@@ -39,7 +39,8 @@ const finishIndex = new Map<string, Finish>([...finishes.map((f) => [f, f] as co
 const columnLabel = (key: string) => columns.find((c) => c.key === key)?.header ?? key;
 
 export type ParsedRow = { line: number; input: CreatePaintInput };
-export type ParseResult = { rows: ParsedRow[]; skipped: { line: number; message: string }[]; notes: string[] };
+/** `columns` are the fields the file has: an update changes only those. */
+export type ParseResult = { rows: ParsedRow[]; skipped: { line: number; message: string }[]; notes: string[]; columns: (keyof CreatePaintInput)[] };
 
 type Parsed = { record: string[]; info: { lines: number }; raw: string };
 
@@ -76,7 +77,7 @@ export function parsePaintsCsv(text: string): ParseResult {
   const header = withLines.shift();
   if (!header || header.record.every((h) => !h.trim())) {
     notes.push('The file has no header row. The first row must name the columns, e.g. Name, Maker, Type, Colour.');
-    return { rows: [], skipped, notes };
+    return { rows: [], skipped, notes, columns: [] };
   }
   const mapping: (Column | null)[] = header.record.map((h) => headerIndex.get(norm(h)) ?? null);
   const unknown = header.record.filter((h, i) => h.trim() && mapping[i] === null);
@@ -91,7 +92,7 @@ export function parsePaintsCsv(text: string): ParseResult {
   });
   if (!seen.has('name')) {
     notes.push('The header row has no Name column, so no paint could be read.');
-    return { rows: [], skipped, notes };
+    return { rows: [], skipped, notes, columns: [] };
   }
 
   const rows: ParsedRow[] = [];
@@ -125,21 +126,22 @@ export function parsePaintsCsv(text: string): ParseResult {
       range: values.range || null,
       type: values.type ? typeIndex.get(norm(values.type)) : undefined,
       finish: values.finish ? finishIndex.get(norm(values.finish)) : null,
-      hex: values.hex || null,
+      hex: seen.has('hex') ? values.hex || null : undefined,
       stock: values.stock ? Number(values.stock) : 0,
       lowStockThreshold: values.lowStockThreshold ? Number(values.lowStockThreshold) : null,
       notes: values.notes || null,
     };
-    const parsed = createPaintInput.safeParse(candidate);
+    // Without a Colour column the colour rule waits: the import checks it for paints new to the rack.
+    const parsed = (seen.has('hex') ? createPaintInput : paintRowFields).safeParse(candidate);
     if (!parsed.success) {
       const fields = fieldErrors(parsed.error.issues);
       skipped.push({ line: r.line, message: Object.entries(fields).map(([k, m]) => `${columnLabel(k)}: ${m}`).join(' ') });
       continue;
     }
-    rows.push({ line: r.line, input: parsed.data });
+    rows.push({ line: r.line, input: parsed.data as CreatePaintInput });
   }
   skipped.sort((a, b) => a.line - b.line);
-  return { rows, skipped, notes };
+  return { rows, skipped, notes, columns: [...seen] };
 }
 
 /** Words that must be one of a list, and numbers; said in the column's own name. */

@@ -1,6 +1,8 @@
 import { hexToLab, matchBand, nearestInRack, prepareRack } from '../../../shared/color';
 import {
+  colourMissing,
   createPaintInput,
+  NEEDS_COLOUR_MESSAGE,
   type CreatePaintInput,
   type ImportReport,
   type PaintListQuery,
@@ -124,8 +126,11 @@ export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clo
           const key = matchKey(r.input.name, r.input.maker);
           const found = existing.get(key);
           if (found) {
-            await repo.update(studioId, found.id, r.input, key, at, trx);
+            const patch = Object.fromEntries(parsed.columns.map((c) => [c, r.input[c]])) as UpdatePaintInput;
+            await repo.update(studioId, found.id, patch, key, at, trx);
             updated++;
+          } else if (colourMissing(r.input)) {
+            skipped.push({ line: r.line, message: `Colour: ${NEEDS_COLOUR_MESSAGE} This paint is new to the rack, and the file has no Colour column.` });
           } else {
             await repo.create(studioId, r.input, at, trx);
             created++;

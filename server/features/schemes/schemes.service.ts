@@ -64,7 +64,8 @@ export function schemesService(deps: { repo: SchemesRepository; recipes: Pick<Re
     const figureId = input.figureId !== undefined ? input.figureId : (current?.figure_id ?? null);
     const area = input.area ?? current?.area ?? '';
     if (await repo.sameArea(m.studioId, commissionId, figureId ?? null, area, current?.id)) {
-      throw errors.field('area', figureId ? `This figure already has a recipe for "${area}"; change that one instead.` : `The whole commission already has a recipe for "${area}"; change that one instead.`);
+      const who = figureId ? 'This figure' : 'The whole commission';
+      throw errors.field('area', `${who} already has a recipe for "${area}". Name another area, or take that one out of the scheme first.`);
     }
   }
 

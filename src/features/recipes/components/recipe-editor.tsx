@@ -293,6 +293,13 @@ function StepEditor({
   onRemove: () => void;
 }) {
   const p = `steps.${index}` as const;
+  /** Visible labels stay short; screen readers also hear which step a control belongs to. */
+  const inStep = (text: string) => (
+    <>
+      {text}
+      <span className="sr-only"> (step {index + 1})</span>
+    </>
+  );
   const mixPaints = useFieldArray({ control, name: `${p}.paints` });
   const step = useWatch({ control, name: p });
   const err = (k: string) => errors[`${p}.${k}`];
@@ -331,7 +338,7 @@ function StepEditor({
         <legend className="mb-1 text-sm font-medium">Paints</legend>
         <label className="flex items-center gap-2 text-sm">
           <input type="checkbox" className="size-4 accent-verdigris-600" {...register(`${p}.ladder`)} />
-          Ladder of progressive mixes from the first paint to the second
+          {inStep('Ladder of progressive mixes from the first paint to the second')}
         </label>
         {mixPaints.fields.map((f, j) => {
           const chosenPaint = chosen[j];
@@ -339,7 +346,7 @@ function StepEditor({
             <div key={f.id} className="flex flex-wrap items-end gap-2">
               <Swatch className="mb-1.5" hex={chosenPaint?.hex ?? null} label={chosenPaint ? `${chosenPaint.name}${chosenPaint.hex ? `, ${chosenPaint.hex}` : ''}` : 'No paint chosen'} />
               <SelectField
-                label={step.ladder ? (j === 0 ? 'From paint' : j === 1 ? 'To paint' : `Paint ${j + 1}`) : `Paint ${j + 1}`}
+                label={inStep(step.ladder ? (j === 0 ? 'From paint' : j === 1 ? 'To paint' : `Paint ${j + 1}`) : `Paint ${j + 1}`)}
                 className="min-w-56 flex-1"
                 error={err(`paints.${j}.paintId`)}
                 {...register(`${p}.paints.${j}.paintId`)}
@@ -348,7 +355,7 @@ function StepEditor({
               </SelectField>
               {!step.ladder && (
                 <TextField
-                  label="Parts"
+                  label={inStep(`Parts of paint ${j + 1}`)}
                   type="number"
                   inputMode="decimal"
                   min={0.5}
@@ -371,7 +378,7 @@ function StepEditor({
             Add a paint
           </Button>
           {step.ladder && (
-            <TextField label="Steps in the ladder" type="number" inputMode="numeric" min={1} max={MAX_LADDER_STEPS} className="figures w-40" error={err('ladderSteps')} {...register(`${p}.ladderSteps`)} />
+            <TextField label={inStep('Steps in the ladder')} type="number" inputMode="numeric" min={1} max={MAX_LADDER_STEPS} className="figures w-40" error={err('ladderSteps')} {...register(`${p}.ladderSteps`)} />
           )}
         </div>
         {preview && (
@@ -392,17 +399,17 @@ function StepEditor({
           <legend className="sr-only">Dilution</legend>
           <label className="flex items-center gap-2 text-sm">
             <input type="checkbox" className="size-4 accent-verdigris-600" {...register(`${p}.thinned`)} />
-            Thinned
+            {inStep('Thinned')}
           </label>
           {step.thinned && (
             <>
               <div className="flex flex-wrap items-end gap-2">
-                <TextField label={`Parts ${diluentLabels[step.with] ?? "water"}`} type="number" inputMode="numeric" min={0} className="figures w-28" error={err('diluent')} {...register(`${p}.diluent`)} />
+                <TextField label={inStep(`Parts ${diluentLabels[step.with] ?? 'water'}`)} type="number" inputMode="numeric" min={0} className="figures w-28" error={err('diluent')} {...register(`${p}.diluent`)} />
                 <span className="pb-2 text-lg" aria-hidden="true">
                   :
                 </span>
-                <TextField label="Parts paint" type="number" inputMode="numeric" min={1} className="figures w-28" error={err('paintParts')} {...register(`${p}.paintParts`)} />
-                <SelectField label="Thinned with" className="w-44" error={err('with')} {...register(`${p}.with`)}>
+                <TextField label={inStep('Parts paint')} type="number" inputMode="numeric" min={1} className="figures w-28" error={err('paintParts')} {...register(`${p}.paintParts`)} />
+                <SelectField label={inStep('Thinned with')} className="w-44" error={err('with')} {...register(`${p}.with`)}>
                   {diluents.map((d) => (
                     <option key={d} value={d}>
                       {diluentLabels[d]}
@@ -422,11 +429,11 @@ function StepEditor({
             ) : (
               <input type="checkbox" className="size-4 accent-verdigris-600" {...register(`${p}.airbrush`)} />
             )}
-            Applied with an airbrush
+            {inStep('Applied with an airbrush')}
           </label>
           {airbrush && (
             <div className="flex flex-wrap items-end gap-2">
-              <TextField label="Air pressure (psi)" type="number" inputMode="decimal" min={1} max={60} step={0.5} optional className="figures w-40" error={err('psi')} {...register(`${p}.psi`)} />
+              <TextField label={inStep('Air pressure (psi)')} type="number" inputMode="decimal" min={1} max={60} step={0.5} optional className="figures w-40" error={err('psi')} {...register(`${p}.psi`)} />
               {Number.isFinite(psi) && psi > 0 && (
                 <span className="pb-2 text-sm figures" aria-live="polite">
                   = {psiToBar(psi).toFixed(2)} bar
@@ -439,8 +446,8 @@ function StepEditor({
       </div>
 
       <div className="grid gap-3 sm:grid-cols-2">
-        <TextField label="Tool" optional placeholder="e.g. size 1 round" autoComplete="off" error={err('tool')} {...register(`${p}.tool`)} />
-        <TextArea label="Notes" optional rows={2} error={err('notes')} {...register(`${p}.notes`)} />
+        <TextField label={inStep('Tool')} optional placeholder="e.g. size 1 round" autoComplete="off" error={err('tool')} {...register(`${p}.tool`)} />
+        <TextArea label={inStep('Notes')} optional rows={2} error={err('notes')} {...register(`${p}.notes`)} />
       </div>
       <SafetyCaution className="mt-3" keys={stepHaz} texts={hazards} />
     </li>
