@@ -13,7 +13,7 @@ const zones = [
 ];
 
 export default tseslint.config(
-  { ignores: ['dist/**', 'node_modules/**', 'data/**', 'coverage/**'] },
+  { ignores: ['dist/**', 'node_modules/**', 'data/**', 'coverage/**', 'tmp/**', 'tests/e2e/screenshots/**'] },
   js.configs.recommended,
   ...tseslint.configs.recommended,
   {
