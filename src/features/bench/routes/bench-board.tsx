@@ -183,7 +183,7 @@ export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Perso
         </div>
         <div>
           <label htmlFor="bench-due" className="mb-1 block text-sm font-medium">
-            Due before
+            Due on or before
           </label>
           <input id="bench-due" type="date" value={filter.dueBefore ?? ''} onChange={(e) => setFilter('due', e.target.value)} className="min-h-10 w-full rounded-control border border-sable-600 bg-white px-3 text-base" />
         </div>

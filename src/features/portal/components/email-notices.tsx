@@ -10,6 +10,13 @@ export function EmailNoticesButton({ on, role }: { on: boolean; role: 'owner' | 
   const [open, setOpen] = useState(false);
   const update = useUpdateEmailNotices();
   const toast = useToast();
+  // Shown at once; put back if the server says no.
+  const [checked, setChecked] = useState(on);
+  const [shownOn, setShownOn] = useState(on);
+  if (shownOn !== on) {
+    setShownOn(on);
+    setChecked(on);
+  }
   const Icon = on ? Bell : BellOff;
   const what =
     role === 'client'
@@ -22,27 +29,35 @@ export function EmailNoticesButton({ on, role }: { on: boolean; role: 'owner' | 
         <span className="sr-only md:not-sr-only">E-mail notices</span>
       </Button>
       <Dialog open={open} onClose={() => setOpen(false)} title="E-mail notices" description={`We e-mail you about ${what}.`}>
-        <label className="flex items-start gap-3 text-sm">
+        <div className="flex items-start gap-3 text-sm">
           <input
+            id="email-notices"
             type="checkbox"
+            aria-describedby="email-notices-hint"
             className="mt-0.5 size-5 accent-verdigris-600"
-            checked={on}
+            checked={checked}
             disabled={update.isPending}
             onChange={async (e) => {
               const next = e.target.checked;
+              setChecked(next);
               try {
                 await update.mutateAsync(next);
                 toast.show(next ? 'E-mail notices are on.' : 'No more e-mail notices. You can still see everything here.');
               } catch (err) {
+                setChecked(!next);
                 toast.show(err instanceof Error ? err.message : 'That did not save. Try again.', 'error');
               }
             }}
           />
-          <span>
-            <span className="block font-medium">Send me e-mail notices</span>
-            <span className="block text-sable-600">Invitations and password e-mails always come; this covers the rest.</span>
-          </span>
-        </label>
+          <div>
+            <label htmlFor="email-notices" className="block font-medium">
+              Send me e-mail notices
+            </label>
+            <p id="email-notices-hint" className="text-sable-600">
+              Invitations and password e-mails always come; this covers the rest.
+            </p>
+          </div>
+        </div>
       </Dialog>
     </>
   );

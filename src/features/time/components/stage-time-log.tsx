@@ -12,6 +12,15 @@ import { useStageTime } from '../api/get-stage-time';
 import { useRemoveTime } from '../api/remove-time';
 import { useUpdateTime } from '../api/update-time';
 
+/** Today (yyyy-mm-dd) in the studio's timezone: time cannot be logged for a day still to come. */
+function todayIn(timeZone: string): string {
+  try {
+    return new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(new Date());
+  } catch {
+    return new Date().toISOString().slice(0, 10);
+  }
+}
+
 const h = (n: number) => new Intl.NumberFormat(undefined, { maximumFractionDigits: 2 }).format(n);
 
 function parseHours(v: string): number | null {
@@ -177,7 +186,7 @@ export function StageTimeLog({
               setError(undefined);
             }}
           />
-          <TextField label="Day" type="date" optional className="w-44" value={date} onChange={(e) => setDate(e.target.value)} />
+          <TextField label="Day" type="date" optional max={todayIn(timezone)} hint="Today if left empty." className="w-44" value={date} onChange={(e) => setDate(e.target.value)} />
           <TextField label="Note" optional className="min-w-40 flex-1" value={note} onChange={(e) => setNote(e.target.value)} />
           <Button type="submit" variant="secondary" loading={add.isPending}>
             Add time
