@@ -213,11 +213,13 @@ export function customsWording(d: {
   studioName: string;
   serviceValue?: string | null;
 }): string {
-  const figures = `${d.modelCount || 'The'} painted hobby miniature figure${d.modelCount === 1 ? '' : 's'} (plastic, resin or metal models for tabletop games)`;
+  const one = d.modelCount === 1;
+  const figures = `${d.modelCount > 0 ? d.modelCount : 'The'} painted hobby miniature figure${one ? '' : 's'} (plastic, resin or metal models for tabletop games)`;
+  const [they, were, are] = one ? ['The figure', 'was', 'is'] : ['The figures', 'were', 'are'];
   const whose =
     d.supplier === 'studio_buys'
-      ? `The figures were bought by ${d.studioName} for the recipient and painted to order: the parcel holds goods sold together with a painting service.`
-      : `The figures are the recipient's own property. They were sent to ${d.studioName} only to be painted and are being returned to their owner; they were not bought from ${d.studioName}.`;
+      ? `${they} ${were} bought by ${d.studioName} for the recipient and painted to order: the parcel holds goods sold together with a painting service.`
+      : `${they} ${are} the recipient's own property. ${one ? 'It was' : 'They were'} sent to ${d.studioName} only to be painted and ${one ? 'is' : 'are'} being returned to ${one ? 'its' : 'their'} owner; ${one ? 'it was' : 'they were'} not bought from ${d.studioName}.`;
   const value = d.serviceValue ? ` Value of the painting service: ${d.serviceValue}.` : '';
   return `${figures}. ${whose}${value}`;
 }

@@ -50,7 +50,8 @@ describe('models in', () => {
     });
     expect(res.status, JSON.stringify(res.body)).toBe(200);
     expect(res.body).toMatchObject({ recorded: true, receivedOn: '2026-03-06', tracking: 'IPC-77123', complete: false, missing: 1, damaged: 1 });
-    expect(res.body.noticeDraft).toContain('Not in the parcel: 1 of 4 × Cave spider.');
+    expect(res.body.noticeDraft).toContain('Not in the parcel: Cave spider (1 of 4).');
+    expect(res.body.noticeDraft).toMatch(/arrived on Friday,? 6 March 2026/);
     expect(res.body.noticeDraft).toContain('Damaged on arrival: Cave spider (one leg snapped off).');
     const log = await s.a.owner.get(`/api/studios/${s.a.studioId}/commissions/${commissionId}/activity`).expect(200);
     expect(log.body.map((e: { summary: string }) => e.summary)).toContain('Painter a recorded the models received: 4 of 5 arrived, 1 figure damaged.');

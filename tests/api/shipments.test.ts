@@ -65,7 +65,8 @@ describe('packing a parcel', () => {
     expect(shipment.checklist).toEqual(defaultPackingItems.map((label) => ({ label, done: false })));
     // The figures are the client's own (no models-in record says otherwise): the wording says so and that the service was painting.
     expect(shipment.suggestedCustomsText).toContain('painted hobby miniature figure');
-    expect(shipment.suggestedCustomsText).toContain("The figures are the recipient's own property. They were sent to Studio a only to be painted");
+    expect(shipment.suggestedCustomsText).toMatch(/^1 painted hobby miniature figure \(/);
+    expect(shipment.suggestedCustomsText).toContain("The figure is the recipient's own property. It was sent to Studio a only to be painted");
     expect(CUSTOMS_CAUTION).toMatch(/not legal advice/);
 
     // The address is editable per shipment; the client record stays as it was.
@@ -80,8 +81,10 @@ describe('packing a parcel', () => {
   it('says truthfully when the studio bought the models', async () => {
     const { commissionId, url } = await readyToShip('Bought-in beetles');
     await s.a.owner.put(`${base}/commissions/${commissionId}/models-in`, { supplier: 'studio_buys' });
+    await sw.db('figures').where({ commission_id: commissionId }).update({ quantity: 3 });
     const list = await s.a.owner.get(`${base}/commissions/${commissionId}/shipments`).expect(200);
-    expect(list.body[0].suggestedCustomsText).toContain('were bought by Studio a for the recipient and painted to order');
+    expect(list.body[0].suggestedCustomsText).toMatch(/^3 painted hobby miniature figures \(/);
+    expect(list.body[0].suggestedCustomsText).toContain('The figures were bought by Studio a for the recipient and painted to order');
     expect((await s.a.owner.patch(url, { weightGrams: 0, insuredMinor: -1 })).body.error.fields).toMatchObject({ weightGrams: 'At least 1.', insuredMinor: 'At least 0.' });
   });
 

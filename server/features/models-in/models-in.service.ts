@@ -21,13 +21,16 @@ function tally(figures: FigureCheckRow[]) {
   return { missing, damaged };
 }
 
+/** "Sunday 25 October 2026": a calendar day, read at noon UTC so no timezone moves it. */
+const longDay = (d: string) => new Intl.DateTimeFormat('en-GB', { weekday: 'long', day: 'numeric', month: 'long', year: 'numeric', timeZone: 'UTC' }).format(new Date(`${d}T12:00:00Z`));
+
 /** What the note to the client could say: what is missing, what is damaged, and what happens next. */
 function noticeDraft(c: CommissionRef, row: ModelsInRow | undefined, figures: FigureCheckRow[]) {
-  const short = figures.filter((f) => (f.received ?? 0) < f.quantity).map((f) => `${f.quantity - (f.received ?? 0)} of ${f.quantity} × ${f.name}`);
+  const short = figures.filter((f) => (f.received ?? 0) < f.quantity).map((f) => `${f.name} (${f.quantity - (f.received ?? 0)} of ${f.quantity})`);
   const broken = figures.filter((f) => f.damaged).map((f) => (f.note ? `${f.name} (${f.note})` : f.name));
   return [
     `Hello ${c.client_name},`,
-    `Your models for "${c.title}" arrived${row?.received_on ? ` on ${row.received_on}` : ''}, and we checked them against the figure list.`,
+    `Your models for "${c.title}" arrived${row?.received_on ? ` on ${longDay(row.received_on)}` : ''}, and we checked them against the figure list.`,
     ...(short.length ? [`Not in the parcel: ${short.join('; ')}.`] : []),
     ...(broken.length ? [`Damaged on arrival: ${broken.join('; ')}.`] : []),
     ...(!short.length && !broken.length ? ['Everything on the list is here and in good shape.'] : []),

@@ -66,7 +66,7 @@ export function publicStudioService(deps: {
     const t = clock.now().getTime();
     const cached = forecastCache.get(studioId);
     if (cached && t - cached.at < FORECAST_TTL_MS) return cached.value;
-    let value: Delivery | null = null;
+    let value: Delivery | null;
     try {
       const d = await deps.schedule.earliestDelivery({ studioId, role: 'owner', clientId: null, userId: 0 }, { hours: 1 });
       value = d.date && !d.unscheduled ? d : null;

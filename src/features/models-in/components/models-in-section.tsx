@@ -95,16 +95,20 @@ function ModelsInForm({ studioId, commissionId, m, onDone }: { studioId: number;
             {m.figures.map((f, i) => {
               const e = errors.figures?.[i];
               return (
-                <li key={f.figureId} className="grid gap-3 p-3 sm:grid-cols-[1fr_9rem_auto] sm:items-start">
-                  <div className="flex flex-col gap-1">
+                <li key={f.figureId} className="grid grid-cols-2 gap-3 p-3 sm:grid-cols-[1fr_9rem_auto] sm:items-start">
+                  <div className="col-span-2 flex flex-col gap-1 sm:col-span-1">
                     <span className="font-medium">{f.name}</span>
                     <span className="text-xs text-sable-600">{pluralize(f.quantity, 'model')} on the list</span>
                     <Button variant="ghost" size="sm" className="self-start" onClick={() => setValue(`figures.${i}.received`, f.quantity, { shouldDirty: true })}>
-                      All {f.quantity} arrived
+                      All {f.quantity} arrived<span className="sr-only"> of {f.name}</span>
                     </Button>
                   </div>
                   <TextField
-                    label="Arrived"
+                    label={
+                      <>
+                        Arrived<span className="sr-only"> of {f.name}</span>
+                      </>
+                    }
                     type="number"
                     inputMode="numeric"
                     min={0}
@@ -113,13 +117,13 @@ function ModelsInForm({ studioId, commissionId, m, onDone }: { studioId: number;
                     error={e?.received?.message}
                     {...register(`figures.${i}.received`, { valueAsNumber: true })}
                   />
-                  <div className="flex flex-col gap-2 sm:pt-6">
-                    <label className="flex items-center gap-2 text-sm">
-                      <input type="checkbox" className="size-4 accent-verdigris-600" {...register(`figures.${i}.damaged`)} />
-                      Damaged
+                  <div className="flex flex-col gap-2 pt-6">
+                    <label className="flex min-h-10 items-center gap-2 text-sm">
+                      <input type="checkbox" className="size-5 accent-verdigris-600" {...register(`figures.${i}.damaged`)} />
+                      Damaged<span className="sr-only">: {f.name}</span>
                     </label>
                   </div>
-                  <TextField label={`What is wrong with ${f.name}`} optional maxLength={300} className="sm:col-span-3" placeholder="e.g. sword snapped at the hilt" error={e?.note?.message} {...register(`figures.${i}.note`)} />
+                  <TextField label={`What is wrong with ${f.name}`} optional maxLength={300} className="col-span-2 sm:col-span-3" placeholder="e.g. sword snapped at the hilt" error={e?.note?.message} {...register(`figures.${i}.note`)} />
                 </li>
               );
             })}

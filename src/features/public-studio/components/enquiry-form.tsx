@@ -95,9 +95,18 @@ export function EnquiryForm({ slug, studio, onSent }: { slug: string; studio: Pu
             const e = figureErrors?.[i];
             return (
               <li key={field.id} className="grid grid-cols-[1fr_auto] gap-3 rounded-control border border-primer-300 bg-white/60 p-3 sm:grid-cols-[1fr_6rem_10rem_auto] sm:items-start">
-                <TextField label={`Figure ${i + 1}`} maxLength={120} placeholder="e.g. Bog troll" className="col-span-2 sm:col-span-1" error={e?.name?.message} {...register(`figures.${i}.name`)} />
+                <TextField label={
+                    <>
+                      Figure {i + 1}
+                      <span className="sr-only">: name</span>
+                    </>
+                  } maxLength={120} placeholder="e.g. Bog troll" className="col-span-2 sm:col-span-1" error={e?.name?.message} {...register(`figures.${i}.name`)} />
                 <TextField
-                  label="How many"
+                  label={
+                    <>
+                      How many<span className="sr-only"> of figure {i + 1}</span>
+                    </>
+                  }
                   type="number"
                   inputMode="numeric"
                   min={1}
@@ -105,7 +114,13 @@ export function EnquiryForm({ slug, studio, onSent }: { slug: string; studio: Pu
                   error={e?.quantity?.message}
                   {...register(`figures.${i}.quantity`, { valueAsNumber: true })}
                 />
-                <SelectField label="Base size" error={e?.sizeClass?.message} {...register(`figures.${i}.sizeClass`)}>
+                <SelectField
+                  label={
+                    <>
+                      Base size<span className="sr-only"> of figure {i + 1}</span>
+                    </>
+                  }
+                  error={e?.sizeClass?.message} {...register(`figures.${i}.sizeClass`)}>
                   {sizeClasses.map((s) => (
                     <option key={s} value={s}>
                       {sizeClassLabels[s]}

@@ -95,7 +95,6 @@ export function PublicPageCard({ studioId }: { studioId: number }) {
         <span className="flex flex-wrap items-center gap-2">
           <Globe aria-hidden="true" className="size-5 text-verdigris-600" />
           Your public page
-          <Badge tone={p.enabled ? 'success' : 'neutral'}>{p.enabled ? 'Taking enquiries' : 'Switched off'}</Badge>
         </span>
       }
       actions={
@@ -110,6 +109,9 @@ export function PublicPageCard({ studioId }: { studioId: number }) {
         <SettingsForm studioId={studioId} page={p} onDone={() => setEditing(false)} />
       ) : (
         <div className="flex flex-col gap-2 text-sm">
+          <div>
+            <Badge tone={p.enabled ? 'success' : 'neutral'}>{p.enabled ? 'Taking enquiries' : 'Switched off'}</Badge>
+          </div>
           <p>
             Share this address with people who want to ask about a commission:{' '}
             <a href={p.path} target="_blank" rel="noreferrer" className="inline-flex items-center gap-1 break-all">

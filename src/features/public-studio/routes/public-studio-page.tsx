@@ -94,13 +94,13 @@ export function PublicStudioRoute() {
           <h2 id="tiers-title" className="mb-3 text-lg font-semibold">
             Tiers
           </h2>
-          <ul className="grid gap-3 sm:grid-cols-3">
+          <ul className="grid grid-cols-[repeat(auto-fit,minmax(6.5rem,1fr))] gap-2 sm:gap-3">
             {s.tiers.map((t) => (
-              <li key={t.key} className="rounded-card border border-primer-300 bg-bone-50 p-4 shadow-raised">
-                <p className="font-semibold">{t.label}</p>
+              <li key={t.key} className="rounded-card border border-primer-300 bg-bone-50 p-3 shadow-raised sm:p-4">
+                <p className="font-semibold break-words">{t.label}</p>
                 {t.fromMinor !== null ? (
                   <p className="mt-1 text-sm">
-                    from <span className="figures text-lg font-semibold">{formatMoney(t.fromMinor, s.currency)}</span>
+                    from <span className="figures block font-semibold sm:inline sm:text-lg">{formatMoney(t.fromMinor, s.currency)}</span>
                   </p>
                 ) : (
                   <p className="mt-1 text-sm text-sable-600">Priced on request</p>
@@ -117,7 +117,7 @@ export function PublicStudioRoute() {
       <section aria-labelledby="enquiry-title" className="rounded-card border border-primer-300 bg-bone-50 p-4 shadow-raised sm:p-6">
         {sent ? (
           <div className="flex flex-col gap-3" role="status">
-            <h2 id="enquiry-title" className="flex items-center gap-2 text-lg font-semibold">
+            <h2 id="enquiry-title" tabIndex={-1} ref={(h) => h?.focus()} className="flex items-center gap-2 text-lg font-semibold outline-none">
               <CircleCheck aria-hidden="true" className="size-5 text-verdigris-600" />
               Enquiry sent
             </h2>

@@ -1,3 +1,4 @@
+import { useState } from 'react';
 import type { Shipment } from '../../../../shared/schemas/shipments';
 import { useToast } from '../../../components/ui/toast';
 import { useUpdateShipment } from '../api/shipment-actions';
@@ -6,7 +7,9 @@ import { useUpdateShipment } from '../api/shipment-actions';
 export function PackingChecklist({ studioId, shipment }: { studioId: number; shipment: Shipment }) {
   const update = useUpdateShipment(studioId, shipment.commissionId, shipment.id);
   const toast = useToast();
-  const items = shipment.checklist ?? [];
+  // A tick shows at once; the server's answer then replaces it (or the tick goes back when it fails).
+  const [ticking, setTicking] = useState<Record<number, boolean>>({});
+  const items = (shipment.checklist ?? []).map((x, i) => ({ ...x, done: ticking[i] ?? x.done }));
   const done = items.filter((i) => i.done).length;
   return (
     <fieldset className="flex flex-col gap-2">
@@ -24,13 +27,17 @@ export function PackingChecklist({ studioId, shipment }: { studioId: number; shi
                 type="checkbox"
                 className="mt-0.5 size-5 shrink-0 accent-verdigris-600"
                 checked={item.done}
-                disabled={update.isPending || shipment.status === 'delivered'}
+                disabled={shipment.status === 'delivered'}
                 onChange={async (e) => {
-                  const checklist = items.map((x, j) => (j === i ? { ...x, done: e.target.checked } : x));
+                  const checked = e.target.checked;
+                  setTicking((t) => ({ ...t, [i]: checked }));
+                  const checklist = items.map((x, j) => (j === i ? { ...x, done: checked } : x));
                   try {
                     await update.mutateAsync({ checklist });
                   } catch (err) {
                     toast.show(err instanceof Error ? err.message : 'That tick did not save. Try again.', 'error');
+                  } finally {
+                    setTicking(({ [i]: _, ...rest }) => rest);
                   }
                 }}
               />

@@ -74,7 +74,7 @@ export function ShipDialog({ studioId, shipment, open, onClose }: { studioId: nu
               <input type="checkbox" className="mt-0.5 size-5 accent-verdigris-600" checked={override} onChange={(e) => setOverride(e.target.checked)} />
               <span>Ship anyway — I have a reason, and it goes into the commission’s log</span>
             </label>
-            {override && <TextArea label="Why the parcel leaves before payment" rows={3} maxLength={500} value={reason} onChange={(e) => setReason(e.target.value)} error={reasonError} />}
+            {override && <TextArea label="Why the parcel leaves before payment" rows={3} maxLength={500} value={reason} onChange={(e) => { setReason(e.target.value); setReasonError(undefined); }} error={reasonError} />}
           </>
         ) : (
           <p className="text-sm">The balance is paid.</p>

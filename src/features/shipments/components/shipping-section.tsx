@@ -138,10 +138,12 @@ export function ShippingSection({ studioId, commissionId, commissionStatus, isOw
   return (
     <section aria-labelledby="shipping-title" className="flex flex-col gap-3">
       <div className="flex flex-wrap items-center justify-between gap-2">
-        <h2 id="shipping-title" className="flex items-center gap-2 text-lg font-semibold">
-          Shipping
+        <div className="flex items-center gap-2">
+          <h2 id="shipping-title" className="text-lg font-semibold">
+            Shipping
+          </h2>
           {s && <Badge tone={s.status === 'preparing' ? 'attention' : s.status === 'shipped' ? 'info' : 'success'}>{shipmentStatusLabels[s.status]}</Badge>}
-        </h2>
+        </div>
         {isOwner && settings.data && (
           <Button variant="ghost" size="sm" onClick={() => setEditingDefaults(true)}>
             <Settings2 aria-hidden="true" className="size-4" />
