@@ -165,7 +165,7 @@ export function EnquiryForm({ slug, studio, onSent }: { slug: string; studio: Pu
           <legend className="mb-2 text-sm font-medium">
             Extras <span className="font-normal text-sable-600">(optional)</span>
           </legend>
-          <div className="grid gap-2 sm:grid-cols-2">
+          <div className="grid grid-cols-2 gap-x-3 gap-y-1">
             {studio.extras.map((x) => (
               <label key={x.key} className="flex min-h-10 items-center gap-2 text-sm">
                 <input type="checkbox" value={x.key} className="size-4 accent-verdigris-600" {...register('extras')} />
