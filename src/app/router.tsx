@@ -38,6 +38,9 @@ const CommissionNew = lazy(() => import('./routes/commission-new'));
 const CommissionDetail = lazy(() => import('./routes/commission-detail'));
 const Bench = lazy(() => import('./routes/bench'));
 const Money = lazy(() => import('./routes/money'));
+const Calendar = lazy(() => import('./routes/calendar'));
+const Capacity = lazy(() => import('./routes/capacity'));
+const Reports = lazy(() => import('./routes/reports'));
 const Prices = lazy(() => import('./routes/prices'));
 const Quotes = lazy(() => import('./routes/quotes'));
 const QuoteDetail = lazy(() => import('./routes/quote-detail'));
@@ -45,6 +48,7 @@ const CommissionQuotes = lazy(() => import('./routes/commission-quotes'));
 const Invoices = lazy(() => import('./routes/invoices'));
 const InvoiceDetail = lazy(() => import('./routes/invoice-detail'));
 const InvoicePaid = lazy(() => import('./routes/invoice-paid'));
+const InvoiceNew = lazy(() => import('./routes/invoice-new'));
 
 function screen(Screen: ComponentType): ReactNode {
   return (
@@ -129,6 +133,9 @@ export const routes: RouteObject[] = [
               },
               // Money: owners see everything; a client their own quotes and invoices; painters none of it.
               { path: 'money', element: <RequireRole roles={OWNER}><Money /></RequireRole> },
+              { path: 'calendar', element: <RequireRole roles={STAFF}><Calendar /></RequireRole> },
+              { path: 'calendar/capacity', element: <RequireRole roles={STAFF}><Capacity /></RequireRole> },
+              { path: 'reports', element: <RequireRole roles={OWNER}><Reports /></RequireRole> },
               { path: 'money/prices', element: <RequireRole roles={OWNER}><Prices /></RequireRole> },
               { path: 'commissions/:commissionId/quotes', element: <RequireRole roles={OWNER}><CommissionQuotes /></RequireRole> },
               {
@@ -144,6 +151,7 @@ export const routes: RouteObject[] = [
                 element: <RequireRole roles={MONEY} />,
                 children: [
                   { index: true, element: <Invoices /> },
+                  { path: 'new', element: <RequireRole roles={OWNER}><InvoiceNew /></RequireRole> },
                   { path: ':invoiceId', element: <InvoiceDetail /> },
                   { path: ':invoiceId/paid', element: <InvoicePaid /> },
                 ],

@@ -1,6 +1,6 @@
 import { useSearchParams } from 'react-router-dom';
-import { Receipt } from 'lucide-react';
-import { Button } from '../../../components/ui/button';
+import { Plus, Receipt } from 'lucide-react';
+import { Button, ButtonLink } from '../../../components/ui/button';
 import { Card } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { ErrorNote } from '../../../components/ui/error-note';
@@ -49,6 +49,14 @@ export function InvoicesListRoute({ clients = [] }: { clients?: ClientOption[] }
       <PageTitle
         title="Invoices"
         description={owner ? 'Deposits, balances and everything else you have billed.' : 'What you have been billed, what is paid and what is left.'}
+        actions={
+          owner && (
+            <ButtonLink to={commissionId ? `new?commission=${commissionId}` : 'new'} variant="secondary">
+              <Plus aria-hidden="true" className="size-4" />
+              New invoice
+            </ButtonLink>
+          )
+        }
       />
       {owner && (
         <form role="search" aria-label="Filter invoices" className="mb-4 flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()}>

@@ -12,6 +12,7 @@ import { useStudioScope } from '../../../lib/studio-scope';
 import { useSavePriceTable } from '../api/save-price-table';
 import { fromDraft, toDraft, type DraftIssue, type PriceDraft } from './draft';
 import { errorAt, Section } from './form-bits';
+import { LeaveGuard } from './leave-guard';
 import { DiscountsEditor, ExtrasEditor, PresetLinesEditor } from './list-editors';
 import { StageHoursGrid } from './stage-hours-grid';
 import { TryPrices } from './try-prices';
@@ -100,6 +101,7 @@ export function PriceTableForm({ table }: { table: PriceTable }) {
 
   return (
     <form onSubmit={onSubmit} noValidate className="flex flex-col gap-6" aria-label="Price table">
+      <LeaveGuard dirty={isDirty && !save.isPending} />
       {formError && <ErrorNote title="The prices were not saved">{formError}</ErrorNote>}
 
       <Section id="pt-rate" title="Rate and currency" description="Bench time is priced at this rate. Quotes and invoices are in this currency.">

@@ -18,6 +18,7 @@ import { useSaveAndSendQuote, useUpdateQuote } from '../api/quote-mutations';
 import { draftFrom, inputFrom, sameInput, type DraftErrors, type EditorDraft } from './editor-draft';
 import { ExtraLinesEditor } from './extra-lines-editor';
 import { FigureLinesEditor } from './figure-lines-editor';
+import { LeaveGuard } from './leave-guard';
 import { formatDay, todayIn } from './labels';
 import { QuoteBreakdown } from './quote-breakdown';
 
@@ -120,6 +121,7 @@ export function QuoteEditor({ quote, table }: { quote: Quote; table: PriceTable 
 
   return (
     <div className="grid gap-6 lg:grid-cols-[minmax(0,1fr)_22rem] lg:items-start">
+      <LeaveGuard dirty={dirty && !update.isPending && !saveAndSend.isPending && quote.status === 'draft'} />
       <div className="flex flex-col gap-6">
         {formError && <ErrorNote>{formError}</ErrorNote>}
         <Card title="Figures" description="From the commission. Change the figures themselves on the commission; here you can adjust hours for this quote.">
