@@ -126,7 +126,23 @@ describe('lifecycle through the API', () => {
       message: 'A commission that is Enquiry cannot move to Shipped. It can move to Quoted, Cancelled or On hold.',
       allowed: ['quoted', 'cancelled', 'on_hold'],
     });
-    const end = await moveTo(c.id, 'quoted', 'booked', 'on_bench', 'ready_to_ship', 'on_bench', 'ready_to_ship', 'shipped', 'closed');
+    await moveTo(c.id, 'quoted', 'booked', 'on_bench', 'ready_to_ship', 'on_bench', 'ready_to_ship');
+    // No balance has been paid (this commission was never quoted), so the parcel may leave only
+    // through the shipping section with the owner's logged reason.
+    const unpaid = await s.a.owner.post(`${A}/commissions/${c.id}/transitions`, { to: 'shipped' });
+    expect(unpaid.status).toBe(409);
+    expect(unpaid.body.error.code).toBe('balance_unpaid');
+    const shipment = await s.a.owner.post(`${A}/commissions/${c.id}/shipments`);
+    expect(shipment.status).toBe(201);
+    const parcel = await s.a.owner.patch(`${A}/commissions/${c.id}/shipments/${shipment.body.id}`, {
+      carrier: 'Heron Parcel Post',
+      tracking: 'HPP-0042',
+      shipTo: { name: 'Client a', line1: 'Reedway 4', city: 'Saltmarsh', postalCode: '1234', country: 'DE' },
+    });
+    expect(parcel.status, JSON.stringify(parcel.body)).toBe(200);
+    const shipped = await s.a.owner.post(`${A}/commissions/${c.id}/shipments/${shipment.body.id}/ship`, { overrideUnpaid: true, overrideReason: 'Paid in person at the fair' });
+    expect(shipped.status, JSON.stringify(shipped.body)).toBe(200);
+    const end = await moveTo(c.id, 'closed');
     expect(end.status).toBe('closed');
     expect(end.allowedTransitions).toEqual([]);
     const again = await s.a.owner.post(`${A}/commissions/${c.id}/transitions`, { to: 'enquiry' });
