@@ -17,8 +17,8 @@ function ExtraRow({ index, register, control, errors, currency, stages, onRemove
   const label = useWatch({ control, name: `extras.${index}.label` });
   const p = `extras.${index}` as const;
   return (
-    <li className="grid gap-3 border-b border-primer-300 pb-4 last:border-b-0 sm:grid-cols-12 sm:items-start">
-      <TextField label="Extra" className="sm:col-span-4" autoComplete="off" error={errorAt(errors, `${p}.label`)} {...register(`${p}.label`)} />
+    <li className="grid grid-cols-2 gap-3 border-b border-primer-300 pb-4 last:border-b-0 sm:grid-cols-12 sm:items-start">
+      <TextField label="Extra" className="col-span-2 sm:col-span-4" autoComplete="off" error={errorAt(errors, `${p}.label`)} {...register(`${p}.label`)} />
       <SelectField label="Priced as" className="sm:col-span-3" {...register(`${p}.kind`)}>
         <option value="hours">Added hours</option>
         <option value="flat">Flat price</option>
@@ -51,7 +51,7 @@ function ExtraRow({ index, register, control, errors, currency, stages, onRemove
           </SelectField>
         </>
       )}
-      <div className="sm:col-span-1 sm:pt-6">
+      <div className={kind === 'flat' ? 'col-span-2 sm:col-span-1 sm:pt-6' : 'pt-6 sm:col-span-1'}>
         <Button variant="ghost" size="sm" onClick={onRemove} aria-label={`Remove ${label || 'this extra'}`}>
           <Trash2 aria-hidden="true" className="size-4" />
           <span className="sm:hidden">Remove</span>
@@ -147,9 +147,9 @@ export function PresetLinesEditor({ register, control, errors, currency }: Commo
       ) : (
         <ul className="flex flex-col gap-4">
           {fields.map((f, i) => (
-            <li key={f.fieldId} className="grid gap-3 border-b border-primer-300 pb-4 last:border-b-0 sm:grid-cols-12 sm:items-start">
-              <TextField label="Line" className="sm:col-span-4" autoComplete="off" error={errorAt(errors, `presetLines.${i}.label`)} {...register(`presetLines.${i}.label`)} />
-              <SelectField label="Kind" className="sm:col-span-3" {...register(`presetLines.${i}.kind`)}>
+            <li key={f.fieldId} className="grid grid-cols-2 gap-3 border-b border-primer-300 pb-4 last:border-b-0 sm:grid-cols-12 sm:items-start">
+              <TextField label="Line" className="col-span-2 sm:col-span-4" autoComplete="off" error={errorAt(errors, `presetLines.${i}.label`)} {...register(`presetLines.${i}.label`)} />
+              <SelectField label="Kind" className="col-span-2 sm:col-span-3" {...register(`presetLines.${i}.kind`)}>
                 {presetKinds.map((k) => (
                   <option key={k.value} value={k.value}>
                     {k.label}

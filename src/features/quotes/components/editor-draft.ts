@@ -50,7 +50,8 @@ export function inputFrom(d: EditorDraft, currency: string): { input: QuoteInput
     for (const [stage, text] of Object.entries(fd.hours)) {
       const s = text.trim();
       if (s === '') continue;
-      if (!/^\d+(\.\d+)?$/.test(s) || Number(s) > 1000) errors[`figures.${i}.stageHours.${stage}`] = 'Enter hours as a number, such as 1.5, or leave it empty for the price table’s.';
+      if (/^\d+,\d+$/.test(s)) errors[`figures.${i}.stageHours.${stage}`] = `Use a point: ${s.replace(',', '.')}`;
+      else if (!/^\d+(\.\d+)?$/.test(s) || Number(s) > 1000) errors[`figures.${i}.stageHours.${stage}`] = 'Hours as a number, such as 1.5.';
       else stageHours[stage] = Number(s);
     }
     return { ...fd.figure, stageHours, omitStages: fd.omit };

@@ -77,7 +77,7 @@ function FigureCard({
                     <th scope="row" className="py-1 text-left font-normal">
                       {s.label}
                     </th>
-                    <td className="figures py-1 text-right text-sable-600">{grid ? `${hoursText(grid[s.key] ?? 0)} h` : '—'}</td>
+                    <td className="figures py-1 text-right whitespace-nowrap text-sable-600">{grid ? `${hoursText(grid[s.key] ?? 0)} h` : '—'}</td>
                     <td className="py-1 pl-2 text-right">
                       <input
                         type="text"

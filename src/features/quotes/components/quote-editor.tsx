@@ -78,7 +78,7 @@ export function QuoteEditor({ quote, table }: { quote: Quote; table: PriceTable 
   const preview = useMemo(() => (Object.keys(readErrors).length ? null : pricePreview(table, input, today)), [readErrors, table, input, today]);
   const errors: DraftErrors = { ...serverErrors, ...(preview?.issues ?? {}), ...readErrors };
   const result = preview?.result ?? null;
-  const dirty = !sameInput(input, saved);
+  const dirty = Object.keys(readErrors).length > 0 || !sameInput(input, saved);
   const canSave = Object.keys(readErrors).length === 0 && !!result;
 
   function change(next: EditorDraft) {

@@ -1,0 +1,24 @@
+import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
+import type { ScheduleView } from '../../../../shared/schemas/schedule';
+import { api } from '../../../lib/api-client';
+
+export type ScheduleWindow = { from?: string; weeks?: number };
+
+export function getSchedule(studioId: number, window: ScheduleWindow, signal?: AbortSignal): Promise<ScheduleView> {
+  return api<ScheduleView>(`/api/studios/${studioId}/schedule`, { query: { from: window.from, weeks: window.weeks }, signal });
+}
+
+/** Everything that depends on the forecast starts with this key, so one invalidation refreshes it all. */
+export const scheduleKey = ['schedule'] as const;
+
+export function scheduleQueryOptions(studioId: number, window: ScheduleWindow = {}) {
+  return queryOptions({
+    queryKey: [...scheduleKey, 'view', { studioId, ...window }] as const,
+    queryFn: ({ signal }) => getSchedule(studioId, window, signal),
+    placeholderData: keepPreviousData,
+  });
+}
+
+export function useSchedule(studioId: number, window: ScheduleWindow = {}) {
+  return useQuery(scheduleQueryOptions(studioId, window));
+}
