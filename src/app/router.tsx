@@ -49,6 +49,7 @@ const Invoices = lazy(() => import('./routes/invoices'));
 const InvoiceDetail = lazy(() => import('./routes/invoice-detail'));
 const InvoicePaid = lazy(() => import('./routes/invoice-paid'));
 const InvoiceNew = lazy(() => import('./routes/invoice-new'));
+const CommissionCancel = lazy(() => import('./routes/commission-cancel'));
 
 function screen(Screen: ComponentType): ReactNode {
   return (
@@ -138,6 +139,7 @@ export const routes: RouteObject[] = [
               { path: 'reports', element: <RequireRole roles={OWNER}><Reports /></RequireRole> },
               { path: 'money/prices', element: <RequireRole roles={OWNER}><Prices /></RequireRole> },
               { path: 'commissions/:commissionId/quotes', element: <RequireRole roles={OWNER}><CommissionQuotes /></RequireRole> },
+              { path: 'commissions/:commissionId/cancel', element: <RequireRole roles={OWNER}><CommissionCancel /></RequireRole> },
               {
                 path: 'quotes',
                 element: <RequireRole roles={MONEY} />,
