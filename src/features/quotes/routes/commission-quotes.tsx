@@ -40,8 +40,14 @@ export function CommissionQuotesRoute() {
             </EmptyState>
           ) : (
             <>
-              <div>
+              <div className="flex flex-wrap items-center gap-x-4 gap-y-2">
                 <NewVersionButton studioId={studioId} commissionId={commissionId} versions={items} quotesPath="../../../quotes" variant="primary" />
+                <Link to={`../../../invoices?commission=${commissionId}`} relative="path" className="text-sm">
+                  Invoices of this commission
+                </Link>
+                <Link to="../cancel" relative="path" className="text-sm">
+                  Cancel the commission…
+                </Link>
               </div>
               <Card title="Versions">
                 <QuoteVersions versions={items} timezone={timezone} forClient={false} linkBase="../../../quotes" />
