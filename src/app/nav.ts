@@ -1,6 +1,7 @@
 import { Brush, ClipboardList, House, Palette, Settings, UserRoundCog, Users, type LucideIcon } from 'lucide-react';
 import { Inbox } from 'lucide-react';
 import { Receipt } from 'lucide-react';
+import { CalendarDays } from 'lucide-react';
 import type { Role } from '../../shared/schemas/common';
 
 export type NavItem = {
@@ -22,6 +23,7 @@ export const STUDIO_NAV: readonly NavItem[] = [
   { to: 'clients', label: 'Clients', icon: Users, roles: ['owner', 'painter'] },
   { to: 'money', label: 'Quotes & invoices', icon: Receipt, roles: ['owner'] },
   { to: 'paints', label: 'Paints & recipes', icon: Palette, roles: ['owner', 'painter'] },
+  { to: 'calendar', label: 'Calendar', icon: CalendarDays, roles: ['owner', 'painter'] },
   { to: 'enquiries', label: 'Enquiries', icon: Inbox, roles: ['owner'] },
   { to: 'team', label: 'Team', icon: UserRoundCog, roles: ['owner'] },
   { to: 'settings', label: 'Settings', icon: Settings, roles: ['owner'] },

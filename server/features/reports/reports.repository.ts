@@ -114,7 +114,7 @@ export function reportsRepository(db: Db) {
         .select('commission_id', 'result_json', 'total');
       const out = new Map<number, { result: unknown; total: number }>();
       for (const r of rows) {
-        let result: unknown = null;
+        let result: unknown;
         try {
           result = JSON.parse(String(r.result_json));
         } catch {

@@ -1,11 +1,10 @@
 import { useMe } from '../../features/auth/api/get-me';
-import { ClientCommissionsRoute } from '../../features/commissions/routes/client-commissions';
-import { StudioHomeRoute } from '../../features/dashboard/routes/studio-home';
+import { ClientHomeRoute, StudioHomeRoute } from '../../features/dashboard/routes/studio-home';
 import { useStudioScope } from '../../lib/studio-scope';
 
 export default function StudioHomePage() {
-  const { role, studioName } = useStudioScope();
+  const { role } = useStudioScope();
   const name = useMe().data?.user.name ?? '';
-  const first = name.trim().split(/\s+/)[0] ?? name;
-  return role === 'client' ? <ClientCommissionsRoute greeting={`Hello, ${first} — this is your corner of ${studioName}.`} /> : <StudioHomeRoute userName={name} />;
+  // The client's home lists their commissions with the date each should be ready (the forecast's).
+  return role === 'client' ? <ClientHomeRoute userName={name} /> : <StudioHomeRoute userName={name} />;
 }

@@ -50,7 +50,7 @@ export function Timeline({ view, studioId }: { view: ScheduleView; studioId: num
 
   return (
     <div className="overflow-x-auto rounded-card border border-primer-300 bg-bone-50" role="region" aria-label="Timeline of the queue" tabIndex={0}>
-      <div className="relative">
+      <div className="relative w-max min-w-full">
         {/* Axis: ISO 8601 weeks with their Monday, then the days */}
         <div className="sticky top-0 z-10 flex border-b border-primer-300 bg-bone-50 text-xs">
           <div className={cn('sticky left-0 z-20 shrink-0 border-r border-primer-300 bg-bone-50 px-3 py-2 font-semibold text-sable-600', LABEL)}>Commission</div>
@@ -113,7 +113,7 @@ export function Timeline({ view, studioId }: { view: ScheduleView; studioId: num
                       style={{ left: pct(left), width: `max(0.6rem, ${pct(right - left)})` }}
                     >
                       {s < 0 && <span aria-hidden="true">‹ </span>}
-                      {c.late ? 'Late' : c.finishDate ? shortDay(c.finishDate) : ''}
+                      {c.finishDate ? `${c.late ? 'Late · ' : ''}${shortDay(c.finishDate)}` : ''}
                       {e !== null && e > days && <span aria-hidden="true"> ›</span>}
                     </Link>
                   ) : (

@@ -70,7 +70,7 @@ export function DaysOff({
             <li key={d.id} className="flex flex-wrap items-center gap-2 px-3 py-2 text-sm">
               <Badge tone={d.kind === 'closed' ? 'attention' : 'neutral'}>{dayOffKindLabels[d.kind]}</Badge>
               <span className="figures">{dayRange(d.from, d.to)}</span>
-              {d.note && <span className="text-sable-600">· {d.note}</span>}
+              {d.note && <span className="text-sable-600">{d.note}</span>}
               {editable && (
                 <Button
                   variant="ghost"
@@ -89,10 +89,11 @@ export function DaysOff({
         </ul>
       )}
       {remove.error && <ErrorNote>{remove.error.message}</ErrorNote>}
+      {editable && <p className="text-sm font-medium">{closed ? 'Close the studio on' : 'Add a day off or a holiday'}</p>}
       {editable && (
-        <form onSubmit={submit} className="grid gap-3 sm:grid-cols-[auto_auto_auto_1fr_auto] sm:items-end" aria-label={closed ? 'Add a closed day' : `Add a day off for ${who}`} noValidate>
+        <form onSubmit={submit} className="flex flex-wrap items-end gap-3" aria-label={closed ? 'Add a closed day' : `Add a day off for ${who}`} noValidate>
           {!closed && (
-            <SelectField id={`${idBase}-kind`} label="Kind" value={kind} onChange={(e) => setKind(e.target.value as DayOffKind)} error={errors.kind}>
+            <SelectField id={`${idBase}-kind`} label="Kind" className="w-36" value={kind} onChange={(e) => setKind(e.target.value as DayOffKind)} error={errors.kind}>
               <option value="day_off">Day off</option>
               <option value="holiday">Holiday</option>
             </SelectField>
@@ -100,6 +101,7 @@ export function DaysOff({
           <TextField
             id={`${idBase}-from`}
             type="date"
+            className="w-44"
             label="First day"
             value={from}
             onChange={(e) => {
@@ -108,10 +110,10 @@ export function DaysOff({
             }}
             error={errors.from}
           />
-          <TextField id={`${idBase}-to`} type="date" label="Last day" value={to} min={from} onChange={(e) => setTo(e.target.value)} error={errors.to} />
-          <TextField id={`${idBase}-note`} label="Note" optional value={note} maxLength={120} onChange={(e) => setNote(e.target.value)} error={errors.note} placeholder={closed ? 'e.g. Public holiday' : 'e.g. Family visit'} />
-          <Button type="submit" loading={add.isPending} variant="secondary" className={closed ? 'sm:col-start-5' : undefined}>
-            {closed ? 'Close the studio' : 'Add'}
+          <TextField id={`${idBase}-to`} type="date" className="w-44" label="Last day" value={to} min={from} onChange={(e) => setTo(e.target.value)} error={errors.to} />
+          <TextField id={`${idBase}-note`} className="min-w-48 flex-1" label="Note" optional value={note} maxLength={120} onChange={(e) => setNote(e.target.value)} error={errors.note} placeholder={closed ? 'e.g. Public holiday' : 'e.g. Family visit'} />
+          <Button type="submit" loading={add.isPending} variant="secondary">
+            {closed ? 'Close the studio' : 'Add the days'}
           </Button>
         </form>
       )}

@@ -55,15 +55,15 @@ export function WeeklyHoursEditor({ studioId, painter, editable }: { studioId: n
           const ranges = hours[k] ?? [];
           const day = weekdayLabels[Number(k)];
           return (
-            <li key={k} className="flex flex-wrap items-start gap-x-3 gap-y-2 px-3 py-2">
-              <span className="w-24 shrink-0 pt-2 text-sm font-medium">{day}</span>
+            <li key={k} className="flex flex-col gap-x-3 gap-y-1 px-3 py-2 sm:flex-row sm:items-start">
+              <span className="shrink-0 text-sm font-medium sm:w-24 sm:pt-2">{day}</span>
               <div className="flex min-w-0 flex-1 flex-col gap-2">
-                {ranges.length === 0 && <span className="pt-2 text-sm text-sable-600">Not working</span>}
+                {ranges.length === 0 && <span className="text-sm text-sable-600 sm:pt-2">Not working</span>}
                 {ranges.map((r, i) => {
                   const err = errors[`hours.${k}.${i}.start`] ?? errors[`hours.${k}.${i}.end`];
                   return (
                     <div key={i} className="flex flex-col gap-1">
-                      <div className="flex flex-wrap items-center gap-2">
+                      <div className="flex items-center gap-1.5 sm:gap-2">
                         <input
                           type="time"
                           step={900}
@@ -72,7 +72,7 @@ export function WeeklyHoursEditor({ studioId, painter, editable }: { studioId: n
                           aria-label={`${day}, range ${i + 1}, from`}
                           aria-invalid={err ? true : undefined}
                           onChange={(e) => update(k, ranges.map((x, j) => (j === i ? { ...x, start: e.target.value } : x)))}
-                          className="min-h-10 rounded-control border border-sable-600 bg-white px-2 text-base aria-invalid:border-2 aria-invalid:border-oxide-600"
+                          className="min-h-10 w-[7.25rem] min-w-0 rounded-control border border-sable-600 bg-white px-1.5 text-sm aria-invalid:border-2 aria-invalid:border-oxide-600 sm:w-36 sm:px-2 sm:text-base"
                         />
                         <span aria-hidden="true">to</span>
                         <input
@@ -83,7 +83,7 @@ export function WeeklyHoursEditor({ studioId, painter, editable }: { studioId: n
                           aria-label={`${day}, range ${i + 1}, until`}
                           aria-invalid={err ? true : undefined}
                           onChange={(e) => update(k, ranges.map((x, j) => (j === i ? { ...x, end: e.target.value === '23:59' ? '24:00' : e.target.value } : x)))}
-                          className="min-h-10 rounded-control border border-sable-600 bg-white px-2 text-base aria-invalid:border-2 aria-invalid:border-oxide-600"
+                          className="min-h-10 w-[7.25rem] min-w-0 rounded-control border border-sable-600 bg-white px-1.5 text-sm aria-invalid:border-2 aria-invalid:border-oxide-600 sm:w-36 sm:px-2 sm:text-base"
                         />
                         {editable && (
                           <Button variant="ghost" size="sm" onClick={() => update(k, ranges.filter((_, j) => j !== i))} aria-label={`Remove ${day} range ${i + 1}`}>
@@ -100,7 +100,7 @@ export function WeeklyHoursEditor({ studioId, painter, editable }: { studioId: n
                 <Button
                   variant="ghost"
                   size="sm"
-                  className="mt-1"
+                  className="self-start sm:mt-1"
                   onClick={() => update(k, [...ranges, ranges.length ? { start: '13:00', end: '17:00' } : { start: '09:00', end: '15:00' }])}
                   aria-label={ranges.length ? `Add another range on ${day}` : `Add working hours on ${day}`}
                 >

@@ -54,7 +54,7 @@ export function CapacityRoute() {
             .filter((p) => isOwner || p.userId === userId)
             .map((p) => (
               <Card key={p.userId} title={p.userId === userId ? `${p.name} (you)` : p.name} description={`${p.role === 'owner' ? 'Owner' : 'Painter'} · ${p.weeklyHours} h in an ordinary week`}>
-                <div className="grid gap-6 lg:grid-cols-[minmax(0,3fr)_minmax(0,2fr)]">
+                <div className="flex flex-col gap-6">
                   <section aria-label={`${p.name}’s week`}>
                     <h3 className="mb-2 text-base font-semibold">Hours each week</h3>
                     <WeeklyHoursEditor key={JSON.stringify(p.hours)} studioId={studioId} painter={p} editable={isOwner || p.userId === userId} />

@@ -7,7 +7,7 @@ import { Card } from '../../../components/ui/card';
 import { ErrorNote } from '../../../components/ui/error-note';
 import { useToast } from '../../../components/ui/toast';
 import { useStopTimer } from '../api/stop-timer';
-import { clock, formatDay, hoursText } from './dates';
+import { clock, formatDay, hoursText, shortDay } from './dates';
 
 function elapsed(since: string, now: number): string {
   const m = Math.max(0, Math.floor((now - Date.parse(since)) / 60_000));
@@ -60,14 +60,19 @@ function StageList({ studioId, stages, timeZone, empty, showDay }: { studioId: n
               {s.commission.dueDate ? ` · due ${formatDay(s.commission.dueDate)}` : ''}
             </span>
           </span>
-          <span className="figures text-sm">
-            {showDay ? `${formatDay(localDate(s.start, timeZone))} · ` : ''}
-            {clock(s.start, timeZone)}–{clock(s.end, timeZone)} · {hoursText(s.hours)}
-          </span>
+          <span className="figures text-sm">{when(s, timeZone, showDay)} · {hoursText(s.hours)}</span>
         </li>
       ))}
     </ul>
   );
+}
+
+/** "09:00–15:00", or across days "Wed, 2 Dec 09:00 to Fri, 4 Dec 15:00". */
+function when(s: PlannedStage, timeZone: string, showDay = false): string {
+  const a = localDate(s.start, timeZone);
+  const b = localDate(s.end, timeZone);
+  if (a !== b) return `${shortDay(a)} ${clock(s.start, timeZone)} to ${shortDay(b)} ${clock(s.end, timeZone)}`;
+  return `${showDay ? `${shortDay(a)} ` : ''}${clock(s.start, timeZone)}–${clock(s.end, timeZone)}`;
 }
 
 function localDate(instant: string, timeZone: string): string {

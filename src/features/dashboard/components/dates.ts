@@ -3,7 +3,8 @@ import { formatDate } from '../../../lib/format';
 /** A calendar day (yyyy-mm-dd) with its weekday; read at UTC noon so no timezone moves it. */
 export const formatDay = (date: string) => formatDate(`${date}T12:00:00Z`, 'UTC');
 
-export const shortDay = (date: string) => new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', timeZone: 'UTC' }).format(new Date(`${date}T12:00:00Z`));
+/** "Wed, 2 Dec" */
+export const shortDay = (date: string) => new Intl.DateTimeFormat(undefined, { weekday: 'short', day: 'numeric', month: 'short', timeZone: 'UTC' }).format(new Date(`${date}T12:00:00Z`));
 
 /** "09:30" in the studio's timezone. */
 export function clock(instant: string, timeZone: string): string {
@@ -28,3 +29,6 @@ export function monthLabel(month: string): string {
   const [y, m] = month.split('-').map(Number);
   return new Intl.DateTimeFormat(undefined, { month: 'short', timeZone: 'UTC' }).format(new Date(Date.UTC(y, m - 1, 15)));
 }
+
+/** "30 Nov" */
+export const dayMonth = (date: string) => new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', timeZone: 'UTC' }).format(new Date(`${date}T12:00:00Z`));

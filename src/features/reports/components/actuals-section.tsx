@@ -47,7 +47,7 @@ function Suggestions({ studioId, report }: { studioId: number; report: ActualsRe
       {report.suggestions.length === 0 ? (
         <p className="text-sm text-sable-600">No suggestions: your logged time agrees with the table, or there is not enough of it yet.</p>
       ) : (
-        <Table caption="Suggested changes to the hours for one figure" captionHidden>
+        <Table caption="Suggested changes to the hours for one figure" captionHidden className="relative">
           <THead>
             <Tr>
               <Th>Size and tier</Th>
@@ -128,7 +128,7 @@ export function ActualsSection({ studioId, report }: { studioId: number; report:
           </div>
         </dl>
         {report.byStage.length > 0 && (
-          <Table caption="By stage" captionHidden>
+          <Table caption="By stage" captionHidden className="relative">
             <THead>
               <Tr>
                 <Th>Stage</Th>
@@ -160,7 +160,7 @@ export function ActualsSection({ studioId, report }: { studioId: number; report:
         ) : (
           <details>
             <summary className="cursor-pointer text-sm font-medium text-verdigris-600">Show all {report.cells.length} cells</summary>
-            <Table caption="Median logged hours for one figure" captionHidden className="mt-3">
+            <Table caption="Median logged hours for one figure" captionHidden className="relative mt-3">
               <THead>
                 <Tr>
                   <Th>Size</Th>

@@ -12,6 +12,9 @@ import { useSaveBooksSettings } from '../api/save-books-settings';
 import { hoursText, monthLabel } from './months';
 import { RevenueChart } from './revenue-chart';
 
+/** Commissions whose rate is still moving: deposits in, most of the hours not yet logged. */
+const IN_PROGRESS = ['quoted', 'booked', 'on_bench', 'on_hold'];
+
 function Stat({ label, value, hint }: { label: string; value: string; hint?: string }) {
   return (
     <div className="rounded-control border border-primer-300 bg-white px-3 py-2">
@@ -66,19 +69,20 @@ export function EarningsSection({ studioId, report, from, to, onPeriod }: { stud
           <TextField id="earnings-from" type="month" label="From" value={from} max={to} onChange={(e) => e.target.value && onPeriod(e.target.value, to < e.target.value ? e.target.value : to)} className="w-44" />
           <TextField id="earnings-to" type="month" label="To" value={to} min={from} onChange={(e) => e.target.value && onPeriod(from > e.target.value ? e.target.value : from, e.target.value)} className="w-44" />
         </form>
-        <dl className="grid grid-cols-2 gap-2 sm:grid-cols-3 lg:grid-cols-6">
+        <dl className="grid grid-cols-2 gap-2 sm:grid-cols-4 xl:grid-cols-7">
           <Stat label="Received" value={m(t.paid)} />
           <Stat label="Tax in it" value={m(t.tax)} />
           <Stat label="Card fees" value={m(t.fees)} />
           <Stat label="Materials, models, shipping" value={m(t.costs)} hint="as quoted" />
           <Stat label="Net earnings" value={m(t.net)} />
-          <Stat label="Per hour logged" value={perHour(t.hourlyNet)} hint={`net · ${perHour(t.hourlyGross)} received · table ${m(report.tableHourlyRate)} / h`} />
+          <Stat label="Received per hour logged" value={perHour(t.hourlyGross)} />
+          <Stat label="Net per hour logged" value={perHour(t.hourlyNet)} hint={`price table: ${m(report.tableHourlyRate)} / h`} />
         </dl>
         <RevenueChart months={report.months} currency={report.currency} />
         {report.commissions.length === 0 ? (
           <p className="text-sm text-sable-600">No money came in during these months.</p>
         ) : (
-          <Table caption="Effective hourly rate per commission: everything it was paid, over the hours logged on it.">
+          <Table caption="Effective hourly rate per commission: everything it was paid, over the hours logged on it." className="relative">
             <THead>
               <Tr>
                 <Th>Commission</Th>
@@ -99,7 +103,10 @@ export function EarningsSection({ studioId, report, from, to, onPeriod }: { stud
                   <Td className="figures text-right">{m(c.paid)}</Td>
                   <Td className="figures text-right">{m(c.net)}</Td>
                   <Td className="figures text-right">{hoursText(c.loggedHours)}</Td>
-                  <Td className="figures text-right">{c.hourlyGross === null ? 'no time yet' : m(c.hourlyGross)}</Td>
+                  <Td className="figures text-right">
+                    {c.hourlyGross === null ? 'no time yet' : m(c.hourlyGross)}
+                    {c.hourlyGross !== null && IN_PROGRESS.includes(c.status) && <span className="block text-xs text-sable-600">in progress</span>}
+                  </Td>
                   <Td className="figures text-right">{c.hourlyNet === null ? '—' : m(c.hourlyNet)}</Td>
                 </Tr>
               ))}

@@ -1,4 +1,4 @@
-import { Bar, BarChart, CartesianGrid, Legend, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
+import { Bar, BarChart, CartesianGrid, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import type { MonthEarnings } from '../../../../shared/schemas/reports';
 import { formatMoney } from '../../../lib/format';
 import { monthLabel } from './months';
@@ -19,13 +19,19 @@ export function RevenueChart({ months, currency }: { months: MonthEarnings[]; cu
             <XAxis dataKey="month" tick={{ fill: '#6B4F3F', fontSize: 12 }} tickLine={false} axisLine={{ stroke: '#D6D2CC' }} />
             <YAxis tickFormatter={(v: number) => formatMoney(v, currency).replace(/[.,]00(?!\d)/, '')} tick={{ fill: '#6B4F3F', fontSize: 12 }} width={72} tickLine={false} axisLine={false} />
             <Tooltip formatter={(v) => money(Number(v))} cursor={{ fill: '#DCEFEA' }} contentStyle={{ borderRadius: 6, borderColor: '#D6D2CC', fontSize: 14 }} />
-            <Legend wrapperStyle={{ fontSize: 12 }} />
             <Bar dataKey="paid" name="Received" fill={VERDIGRIS} radius={[3, 3, 0, 0]} />
             <Bar dataKey="net" name="Net of tax, fees and costs" fill={GLAZE} radius={[3, 3, 0, 0]} />
           </BarChart>
         </ResponsiveContainer>
       </div>
-      <figcaption className="sr-only">Received and net earnings by month</figcaption>
+      <figcaption className="flex flex-wrap gap-4 text-xs text-sable-600">
+        <span className="flex items-center gap-1.5">
+          <span aria-hidden="true" className="inline-block size-3 rounded-sm bg-verdigris-600" /> Received
+        </span>
+        <span className="flex items-center gap-1.5">
+          <span aria-hidden="true" className="inline-block size-3 rounded-sm bg-glaze-500" /> Net of tax, card fees and pass-through costs
+        </span>
+      </figcaption>
       <table className="sr-only">
         <caption>Received and net by month</caption>
         <thead>

@@ -1,0 +1,5 @@
+import { CalendarRoute } from '../../features/calendar/routes/calendar';
+
+export default function CalendarPage() {
+  return <CalendarRoute />;
+}
