@@ -37,4 +37,5 @@ export const useVoidInvoice = (studioId: number, invoiceId: number) =>
 export const useRecordPayment = (studioId: number, invoiceId: number) =>
   useInvoiceMutation(studioId, invoiceId, (body: RecordPaymentBody) => recordPayment(studioId, invoiceId, body), (i) => i);
 export const useRefundInvoice = (studioId: number, invoiceId: number) =>
-  useInvoiceMutation(studioId, invoiceId, (body: RefundBody) => refundInvoice(studioId, invoiceId, body), (r) => r.invoice);
+  // refunding an invoice answers it and its new credit note; paying out an open credit note answers the invoice it credits and the note
+  useInvoiceMutation(studioId, invoiceId, (body: RefundBody) => refundInvoice(studioId, invoiceId, body), (r) => (r.invoice.id === invoiceId ? r.invoice : r.creditNote));

@@ -44,11 +44,15 @@ export function InvoiceLines({ invoice }: { invoice: Invoice }) {
       <dl className="ml-auto flex w-full max-w-sm flex-col gap-1 text-sm">
         <Row label="Subtotal" value={m(invoice.subtotal)} />
         {invoice.tax !== 0 && <Row label={invoice.taxInclusive ? `Includes ${taxLabel}` : taxLabel} value={m(invoice.tax)} />}
-        <Row label="Total" value={m(invoice.total)} strong />
-        {invoice.paid !== 0 && <Row label="Paid" value={m(invoice.paid)} />}
-        {invoice.refunded !== 0 && <Row label="Refunded" value={m(invoice.refunded)} />}
-        {invoice.credited !== 0 && <Row label="Credited" value={m(invoice.credited)} />}
-        <Row label="Left to pay" value={m(invoice.balanceDue)} strong />
+        <Row label={invoice.kind === 'credit_note' ? 'Credit' : 'Total'} value={m(invoice.total)} strong />
+        {invoice.kind !== 'credit_note' && (
+          <>
+            {invoice.paid !== 0 && <Row label="Paid" value={m(invoice.paid)} />}
+            {invoice.refunded !== 0 && <Row label="Refunded" value={m(invoice.refunded)} />}
+            {invoice.credited !== 0 && <Row label="Credited" value={m(invoice.credited)} />}
+            <Row label="Left to pay" value={m(invoice.balanceDue)} strong />
+          </>
+        )}
       </dl>
     </div>
   );

@@ -80,7 +80,8 @@ function RecordPaymentDialog({ studioId, invoice, timezone, open, onClose }: Pro
 function RefundDialog({ studioId, invoice, open, onClose }: Props & { open: boolean; onClose: () => void }) {
   const refund = useRefundInvoice(studioId, invoice.id);
   const toast = useToast();
-  const refundable = invoice.paid;
+  // as it was when the dialog opened: after the refund the invoice shows nothing left to refund
+  const [refundable] = useState(invoice.paid);
   const [whole, setWhole] = useState(true);
   const [amount, setAmount] = useState('');
   const [reason, setReason] = useState('');
@@ -201,9 +202,61 @@ function VoidDialog({ studioId, invoice, open, onClose }: Props & { open: boolea
   );
 }
 
+/** An open credit note (a revision below what was paid) is settled by paying the credit back. */
+function PayOutDialog({ studioId, invoice, open, onClose }: Props & { open: boolean; onClose: () => void }) {
+  const refund = useRefundInvoice(studioId, invoice.id);
+  const toast = useToast();
+  const [reason, setReason] = useState('');
+  const [error, setError] = useState<string | null>(null);
+  return (
+    <Dialog
+      open={open}
+      onClose={onClose}
+      title={`Pay out ${formatMoney(invoice.total, invoice.currency)}?`}
+      description="The credit goes back to the client from the payments on the invoice it corrects; card payments go back to the card."
+    >
+      <form
+        noValidate
+        className="flex flex-col gap-4"
+        onSubmit={async (e) => {
+          e.preventDefault();
+          if (!reason.trim()) {
+            setError('Say why, for your records.');
+            return;
+          }
+          try {
+            await refund.mutateAsync({ reason: reason.trim() });
+            toast.show('Credit paid out.');
+            onClose();
+          } catch (err) {
+            setError(err instanceof Error ? err.message : 'The credit was not paid out.');
+          }
+        }}
+      >
+        <TextArea label="Reason" rows={3} value={reason} onChange={(e) => setReason(e.target.value)} error={error ?? undefined} />
+        <div className="flex flex-wrap justify-end gap-2">
+          <Button variant="secondary" onClick={onClose}>
+            Cancel
+          </Button>
+          <Button type="submit" variant="danger" loading={refund.isPending}>
+            Pay out
+          </Button>
+        </div>
+      </form>
+    </Dialog>
+  );
+}
+
+/** Whether the owner can do anything with the invoice in its current status. */
+export function hasOwnerActions(invoice: Invoice): boolean {
+  const s = invoice.status;
+  if (invoice.kind === 'credit_note') return s === 'draft' || s === 'open';
+  return s === 'draft' || s === 'open' || s === 'partly_paid' || invoice.paid > 0;
+}
+
 /** What the owner can do with the invoice in its current status. */
 export function OwnerInvoiceActions({ studioId, invoice, timezone }: Props) {
-  const [open, setOpen] = useState<'pay' | 'refund' | 'void' | null>(null);
+  const [open, setOpen] = useState<'pay' | 'refund' | 'void' | 'payout' | null>(null);
   const issue = useIssueInvoice(studioId, invoice.id);
   const toast = useToast();
   const close = () => setOpen(null);
@@ -227,6 +280,7 @@ export function OwnerInvoiceActions({ studioId, invoice, timezone }: Props) {
         </Button>
       )}
       {(s === 'open' || s === 'partly_paid') && invoice.kind !== 'credit_note' && <Button onClick={() => setOpen('pay')}>Record a payment</Button>}
+      {s === 'open' && invoice.kind === 'credit_note' && <Button onClick={() => setOpen('payout')}>Pay the credit out</Button>}
       {refundable > 0 && invoice.kind !== 'credit_note' && (
         <Button variant="secondary" onClick={() => setOpen('refund')}>
           Refund
@@ -239,6 +293,7 @@ export function OwnerInvoiceActions({ studioId, invoice, timezone }: Props) {
       )}
       {open === 'pay' && <RecordPaymentDialog studioId={studioId} invoice={invoice} timezone={timezone} open onClose={close} />}
       {open === 'refund' && <RefundDialog studioId={studioId} invoice={invoice} timezone={timezone} open onClose={close} />}
+      {open === 'payout' && <PayOutDialog studioId={studioId} invoice={invoice} timezone={timezone} open onClose={close} />}
       {open === 'void' && <VoidDialog studioId={studioId} invoice={invoice} timezone={timezone} open onClose={close} />}
     </div>
   );

@@ -14,7 +14,7 @@ import { invoicePdfUrl, useInvoice } from '../api/get-invoice';
 import type { Invoice } from '../../../../shared/schemas/invoices';
 import { InvoiceLines } from '../components/invoice-lines';
 import { formatDay, invoiceTitle, InvoiceStatusBadge, methodLabels } from '../components/labels';
-import { OwnerInvoiceActions } from '../components/owner-actions';
+import { hasOwnerActions, OwnerInvoiceActions } from '../components/owner-actions';
 import { canPay, PayButton } from '../components/pay-button';
 
 export function BackToInvoices() {
@@ -73,6 +73,11 @@ function PaymentIssues({ invoice, timezone }: { invoice: Invoice; timezone: stri
 
 function StatusNote({ invoice, role }: { invoice: Invoice; role: string }) {
   const m = (minor: number) => formatMoney(minor, invoice.currency);
+  if (invoice.kind === 'credit_note') {
+    if (invoice.status === 'draft') return <Note>A draft credit note: the client does not see it until you issue it.</Note>;
+    if (invoice.status === 'void') return <Note>This credit note was voided.</Note>;
+    return <Note>{`${m(invoice.total)} credited${invoice.status === 'refunded' ? ' and paid back' : ''}.`}</Note>;
+  }
   switch (invoice.status) {
     case 'paid':
       return <Note>{role === 'owner' ? 'Paid in full.' : 'Paid in full — thank you.'}</Note>;
@@ -157,7 +162,7 @@ export function InvoiceDetailRoute() {
             <PayButton studioId={studioId} invoice={inv} />
           </Card>
         )}
-        {owner && (
+        {owner && hasOwnerActions(inv) && (
           <Card title="Actions">
             <OwnerInvoiceActions studioId={studioId} invoice={inv} timezone={timezone} />
           </Card>
@@ -165,16 +170,18 @@ export function InvoiceDetailRoute() {
         <Card title="What it is for">
           {inv.creditFor ? (
             <p className="mb-3 text-sm">
-              Credit for <Link to={`../${inv.creditFor}`} relative="path">an earlier invoice</Link>.
+              Credit against <Link to={`../${inv.creditFor}`} relative="path">the invoice it corrects</Link>.
             </p>
           ) : null}
           <InvoiceLines invoice={inv} />
           {inv.note && <p className="mt-4 text-sm whitespace-pre-line">{inv.note}</p>}
           {inv.taxId && <p className="mt-2 text-xs text-sable-600">{`${inv.taxLabel || 'Tax'} ID: ${inv.taxId}`}</p>}
         </Card>
-        <Card title="Payments">
-          <Payments invoice={inv} timezone={timezone} />
-        </Card>
+        {(inv.kind !== 'credit_note' || inv.payments.length > 0) && (
+          <Card title="Payments">
+            <Payments invoice={inv} timezone={timezone} />
+          </Card>
+        )}
       </div>
     </>
   );
