@@ -48,19 +48,21 @@ function StageList({ studioId, stages, timeZone, empty, showDay }: { studioId: n
   return (
     <ul className="flex flex-col divide-y divide-primer-300">
       {stages.map((s) => (
-        <li key={s.stageId} className="flex flex-wrap items-baseline gap-x-3 gap-y-0.5 py-2">
-          <span className="min-w-0 flex-1">
+        <li key={s.stageId} className="py-2">
+          <p>
             <span className="font-medium">{s.stageName}</span> ·{' '}
             <Link to={`/studio/${studioId}/commissions/${s.commission.id}`}>
               {s.figure.name}
               {s.figure.quantity > 1 ? ` ×${s.figure.quantity}` : ''}
             </Link>
-            <span className="block text-xs text-sable-600">
-              {s.commission.title}
-              {s.commission.dueDate ? ` · due ${formatDay(s.commission.dueDate)}` : ''}
-            </span>
-          </span>
-          <span className="figures text-sm">{when(s, timeZone, showDay)} · {hoursText(s.hours)}</span>
+          </p>
+          <p className="text-xs text-sable-600">
+            {s.commission.title}
+            {s.commission.dueDate ? ` · due ${formatDay(s.commission.dueDate)}` : ''}
+          </p>
+          <p className="figures text-sm">
+            {when(s, timeZone, showDay)} · {hoursText(s.hours)}
+          </p>
         </li>
       ))}
     </ul>

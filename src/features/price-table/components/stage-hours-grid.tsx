@@ -57,6 +57,8 @@ export function StageHoursGrid({ register, control, errors, stages, tiers, tier,
     else if (e.key === 'ArrowLeft' && atStart) c--;
     else if (e.key === 'ArrowRight' && atEnd) c++;
     else return;
+    // Enter moves down like a spreadsheet and never submits the whole form from inside the grid
+    if (e.key === 'Enter') e.preventDefault();
     const next = tableRef.current?.querySelector<HTMLInputElement>(`input[data-cell="${r}:${c}"]`);
     if (!next) return;
     e.preventDefault();

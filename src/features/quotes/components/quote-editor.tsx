@@ -157,7 +157,10 @@ export function QuoteEditor({ quote, table }: { quote: Quote; table: PriceTable 
             Preview
           </h2>
           <p className="mb-3 text-xs text-sable-600">Updates as you type: the same sums the saved quote will show.</p>
-          <div aria-live="polite" aria-atomic="false">
+          <p className="sr-only" aria-live="polite">
+            {result ? `Total ${formatMoney(result.total, result.currency)}, deposit ${formatMoney(result.deposit.amount, result.currency)}.` : 'The preview waits for the marked boxes.'}
+          </p>
+          <div>
             {result ? (
               <div className="flex flex-col gap-3">
                 <QuoteBreakdown
