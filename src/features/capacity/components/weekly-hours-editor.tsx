@@ -40,7 +40,11 @@ export function WeeklyHoursEditor({ studioId, painter, editable }: { studioId: n
     }
     setErrors({});
     save.mutate(parsed.data, {
-      onSuccess: () => toast.show(`${painter.name}’s hours are saved; the forecast has moved with them.`),
+      onSuccess: (view) => {
+        // The server keeps the ranges sorted; take its version so the form is no longer "not saved".
+        setHours(view.painters.find((p) => p.userId === painter.userId)?.hours ?? parsed.data.hours);
+        toast.show(`${painter.name}’s hours are saved; the forecast has moved with them.`);
+      },
       onError: (err) => {
         if (isApiError(err, 400)) setErrors(err.fields);
       },

@@ -47,7 +47,7 @@ export function CapacityRoute() {
         <div className="flex flex-col gap-6">
           {isOwner && (
             <Card title="Timezone">
-              <TimezoneForm key={cap.data.timeZone} studioId={studioId} timezone={cap.data.timeZone} />
+              <TimezoneForm studioId={studioId} timezone={cap.data.timeZone} />
             </Card>
           )}
           {cap.data.painters
@@ -57,7 +57,7 @@ export function CapacityRoute() {
                 <div className="flex flex-col gap-6">
                   <section aria-label={`${p.name}’s week`}>
                     <h3 className="mb-2 text-base font-semibold">Hours each week</h3>
-                    <WeeklyHoursEditor key={JSON.stringify(p.hours)} studioId={studioId} painter={p} editable={isOwner || p.userId === userId} />
+                    <WeeklyHoursEditor studioId={studioId} painter={p} editable={isOwner || p.userId === userId} />
                   </section>
                   <section aria-label={`${p.name}’s days off`}>
                     <h3 className="mb-2 text-base font-semibold">Days off and holidays</h3>

@@ -40,7 +40,7 @@ export function ClientHome({ studioId, studioName, d }: { studioId: number; stud
             <p className="mt-1 text-base">{expected(c)}</p>
             <p className="text-sm text-sable-600">
               {c.dueDate ? `You asked for ${formatDay(c.dueDate)}` : 'No date asked for'}
-              {c.late && c.projectedDate ? ' · later than you asked; the studio will be in touch' : ''}
+              {c.late && c.projectedDate ? ' · the forecast is after that date' : ''}
             </p>
           </li>
         ))}

@@ -121,7 +121,7 @@ export function EarningsSection({ studioId, report, from, to, onPeriod }: { stud
             What your payment service keeps of each card payment; see its fee page for your country and cards. Bank transfers and cash carry none here. Fees are not returned on
             refunds.
           </p>
-          <FeesForm key={`${report.settings.cardFeeBp}-${report.settings.cardFeeFixedMinor}`} studioId={studioId} settings={report.settings} currency={report.currency} />
+          <FeesForm studioId={studioId} settings={report.settings} currency={report.currency} />
         </section>
       </div>
     </Card>
