@@ -8,6 +8,7 @@ import { PageTitle } from '../../../components/ui/page-title';
 import { LoadingBlock } from '../../../components/ui/spinner';
 import { useStudioScope } from '../../../lib/studio-scope';
 import { useSchedule } from '../api/get-schedule';
+import { BookedTodayCard } from '../components/booked-today-card';
 import { CalendarFeedCard } from '../components/calendar-feed-card';
 import { formatDay } from '../components/dates';
 import { QueueList } from '../components/queue-list';
@@ -129,7 +130,10 @@ export function CalendarRoute() {
             </section>
           )}
 
-          {(role === 'owner' || role === 'painter') && <CalendarFeedCard studioId={studioId} timezone={timezone} role={role} />}
+          <div className="grid gap-6 lg:grid-cols-2">
+            {role === 'owner' && <BookedTodayCard studioId={studioId} />}
+            {(role === 'owner' || role === 'painter') && <CalendarFeedCard studioId={studioId} timezone={timezone} role={role} />}
+          </div>
         </div>
       )}
     </>
