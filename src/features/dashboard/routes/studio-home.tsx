@@ -1,3 +1,4 @@
+import type { ReactNode } from 'react';
 import { CalendarDays } from 'lucide-react';
 import { ButtonLink } from '../../../components/ui/button';
 import { ErrorNote } from '../../../components/ui/error-note';
@@ -46,8 +47,8 @@ export function StudioHomeRoute({ userName }: { userName: string }) {
   );
 }
 
-/** The client's portal home: their commissions with the date each should be ready. */
-export function ClientHomeRoute({ userName }: { userName: string }) {
+/** The client's portal home: their commissions with the date each should be ready; `aside` holds other features' cards (quotes, invoices). */
+export function ClientHomeRoute({ userName, aside }: { userName: string; aside?: ReactNode }) {
   const { studioId, studioName } = useStudioScope();
   const d = useDashboard(studioId);
   return (
@@ -58,7 +59,10 @@ export function ClientHomeRoute({ userName }: { userName: string }) {
       ) : d.error ? (
         <ErrorNote title="Your commissions did not load">{d.error.message}</ErrorNote>
       ) : d.data.role === 'client' ? (
-        <ClientHome studioId={studioId} studioName={studioName} d={d.data} />
+        <div className="flex flex-col gap-6">
+          <ClientHome studioId={studioId} studioName={studioName} d={d.data} />
+          {aside && <div className="grid gap-4 sm:grid-cols-2">{aside}</div>}
+        </div>
       ) : null}
     </>
   );
