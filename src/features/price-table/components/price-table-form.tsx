@@ -12,7 +12,7 @@ import { useStudioScope } from '../../../lib/studio-scope';
 import { useSavePriceTable } from '../api/save-price-table';
 import { fromDraft, toDraft, type DraftIssue, type PriceDraft } from './draft';
 import { errorAt, Section } from './form-bits';
-import { LeaveGuard } from './leave-guard';
+import { LeaveGuard } from '../../../components/ui/leave-guard';
 import { DiscountsEditor, ExtrasEditor, PresetLinesEditor } from './list-editors';
 import { StageHoursGrid } from './stage-hours-grid';
 import { TryPrices } from './try-prices';

@@ -18,7 +18,7 @@ import { useSaveAndSendQuote, useUpdateQuote } from '../api/quote-mutations';
 import { draftFrom, inputFrom, sameInput, type DraftErrors, type EditorDraft } from './editor-draft';
 import { ExtraLinesEditor } from './extra-lines-editor';
 import { FigureLinesEditor } from './figure-lines-editor';
-import { LeaveGuard } from './leave-guard';
+import { LeaveGuard } from '../../../components/ui/leave-guard';
 import { formatDay, todayIn } from './labels';
 import { QuoteBreakdown } from './quote-breakdown';
 

@@ -1,7 +1,7 @@
 import { useEffect } from 'react';
 import { useBlocker } from 'react-router-dom';
-import { Button } from '../../../components/ui/button';
-import { Dialog } from '../../../components/ui/dialog';
+import { Button } from './button';
+import { Dialog } from './dialog';
 
 /** Asks before leaving with changes that are not saved: inside the app with a dialog, when closing the tab with the browser's own question. */
 export function LeaveGuard({ dirty }: { dirty: boolean }) {
