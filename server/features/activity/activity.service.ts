@@ -86,12 +86,12 @@ export function summarize(action: string, d: Record<string, unknown>, who: strin
     case 'comment.added':
       return `${who} wrote a comment.`;
     case 'approval.requested':
-      return `${who} asked the client to approve the ${str(d.subject).replace('-', ' ') || 'work'}.`;
+      return `${who} asked the client to approve the ${subjectWords(d.subject)}.`;
     case 'approval.approved':
-      return `${who} approved the ${str(d.subject).replace('-', ' ') || 'work'}.`;
+      return `${who} approved the ${subjectWords(d.subject)}.`;
     case 'approval.changes_requested':
     case 'approval.changes':
-      return `${who} asked for changes to the ${str(d.subject).replace('-', ' ') || 'work'}.`;
+      return `${who} asked for changes to the ${subjectWords(d.subject)}.`;
     default:
       return typeof d.summary === 'string' ? `${who} ${d.summary}` : `${who}: ${action.replace(/[._]/g, ' ')}.`;
   }
@@ -124,3 +124,9 @@ export function activityService(deps: { repo: ActivityRepository; clock: Clock }
 }
 
 export type ActivityService = ReturnType<typeof activityService>;
+
+/** How an approval's subject reads in a sentence: "the colour scheme", "the test figure", "the finished work". */
+function subjectWords(subject: unknown): string {
+  const words: Record<string, string> = { scheme: 'colour scheme', 'test-figure': 'test figure', finished: 'finished work' };
+  return words[String(subject)] ?? 'work';
+}
