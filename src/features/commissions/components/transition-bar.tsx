@@ -1,10 +1,8 @@
 import { useState } from 'react';
 import { commissionStatusLabels, type CommissionStatus } from '../../../../shared/commission-lifecycle';
 import type { CommissionDetail } from '../../../../shared/schemas/commissions';
-import { Button } from '../../../components/ui/button';
-import { Dialog } from '../../../components/ui/dialog';
+import { Button, ButtonLink } from '../../../components/ui/button';
 import { ErrorNote } from '../../../components/ui/error-note';
-import { TextArea } from '../../../components/ui/field';
 import { useToast } from '../../../components/ui/toast';
 import { useTransitionCommission } from '../api/transition-commission';
 
@@ -25,15 +23,12 @@ export function TransitionBar({ studioId, commission }: { studioId: number; comm
   const move = useTransitionCommission(studioId, commission.id);
   const toast = useToast();
   const [error, setError] = useState<string | null>(null);
-  const [cancelling, setCancelling] = useState(false);
-  const [reason, setReason] = useState('');
-  const [reasonError, setReasonError] = useState<string | undefined>();
   const moves = commission.allowedTransitions;
 
-  async function go(to: CommissionStatus, why?: string) {
+  async function go(to: CommissionStatus) {
     setError(null);
     try {
-      await move.mutateAsync({ to, reason: why });
+      await move.mutateAsync({ to });
       toast.show(`Now ${commissionStatusLabels[to].toLowerCase()}.`);
       return true;
     } catch (err) {
@@ -62,53 +57,13 @@ export function TransitionBar({ studioId, commission }: { studioId: number; comm
           </Button>
         )}
         {moves.includes('cancelled') && (
-          <Button variant="ghost" size="sm" className="text-oxide-600" onClick={() => setCancelling(true)}>
+          // Cancelling goes through its own screen: it shows what the studio's terms keep and refund first.
+          <ButtonLink to={`/studio/${studioId}/commissions/${commission.id}/cancel`} variant="ghost" size="sm" className="text-oxide-600">
             {moveWords.cancelled}…
-          </Button>
+          </ButtonLink>
         )}
       </div>
       {error && <ErrorNote title="The status did not change">{error}</ErrorNote>}
-      <Dialog
-        open={cancelling}
-        onClose={() => setCancelling(false)}
-        title="Cancel this commission?"
-        description="The client sees it as cancelled. Figures and time stay on record but can no longer change."
-        footer={
-          <>
-            <Button variant="secondary" onClick={() => setCancelling(false)}>
-              Keep it
-            </Button>
-            <Button
-              variant="danger"
-              loading={move.isPending}
-              onClick={async () => {
-                if (!reason.trim()) {
-                  setReasonError('Give a reason for cancelling.');
-                  return;
-                }
-                if (await go('cancelled', reason.trim())) {
-                  setCancelling(false);
-                  setReason('');
-                } else setCancelling(false);
-              }}
-            >
-              Cancel commission
-            </Button>
-          </>
-        }
-      >
-        <TextArea
-          label="Reason"
-          rows={3}
-          value={reason}
-          error={reasonError}
-          hint="Kept in the activity log."
-          onChange={(e) => {
-            setReason(e.target.value);
-            setReasonError(undefined);
-          }}
-        />
-      </Dialog>
     </div>
   );
 }

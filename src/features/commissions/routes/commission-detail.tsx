@@ -1,5 +1,5 @@
 import { useState, type ReactNode } from 'react';
-import { useParams } from 'react-router-dom';
+import { Link, useParams } from 'react-router-dom';
 import { Plus } from 'lucide-react';
 import { lockedStatuses, priorityLabels } from '../../../../shared/commission-lifecycle';
 import type { CommissionDetail } from '../../../../shared/schemas/commissions';
@@ -146,6 +146,10 @@ export function CommissionDetailRoute({
           {isOwner && (
             <div className="mt-4 border-t border-primer-300 pt-4">
               <TransitionBar studioId={studioId} commission={c} />
+              <p className="mt-3 flex flex-wrap gap-x-4 gap-y-1 text-sm">
+                <Link to={`/studio/${studioId}/commissions/${c.id}/quotes`}>Quotes for this commission</Link>
+                <Link to={`/studio/${studioId}/invoices?commission=${c.id}`}>Its invoices</Link>
+              </p>
             </div>
           )}
         </Card>
