@@ -10,6 +10,8 @@ export type NavItem = {
   label: string;
   icon: LucideIcon;
   roles: readonly Role[];
+  /** Other screens (relative to the studio) that belong to this entry and light it up too. */
+  also?: readonly string[];
 };
 
 /**
@@ -21,7 +23,7 @@ export const STUDIO_NAV: readonly NavItem[] = [
   { to: 'bench', label: 'Bench', icon: Brush, roles: ['owner', 'painter'] },
   { to: 'commissions', label: 'Commissions', icon: ClipboardList, roles: ['owner', 'painter'] },
   { to: 'clients', label: 'Clients', icon: Users, roles: ['owner', 'painter'] },
-  { to: 'money', label: 'Quotes & invoices', icon: Receipt, roles: ['owner'] },
+  { to: 'money', label: 'Quotes & invoices', icon: Receipt, roles: ['owner'], also: ['quotes', 'invoices', 'reports'] },
   { to: 'paints', label: 'Paints & recipes', icon: Palette, roles: ['owner', 'painter'] },
   { to: 'calendar', label: 'Calendar', icon: CalendarDays, roles: ['owner', 'painter'] },
   { to: 'enquiries', label: 'Enquiries', icon: Inbox, roles: ['owner'] },
@@ -31,4 +33,13 @@ export const STUDIO_NAV: readonly NavItem[] = [
 
 export function navFor(role: Role): NavItem[] {
   return STUDIO_NAV.filter((item) => item.roles.includes(role));
+}
+
+/** Whether a rail entry is the current one for a path below /studio/:studioId (e.g. 'invoices/12'). */
+export function navItemIsCurrent(item: NavItem, rest: string): boolean {
+  const under = (to: string) => rest === to || rest.startsWith(`${to}/`);
+  if (item.to === '') return rest === '';
+  if (under(item.to)) return true;
+  // A commission's quotes and cancel screens sit under commissions/ and stay with Commissions.
+  return (item.also ?? []).some(under);
 }

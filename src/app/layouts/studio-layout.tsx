@@ -1,6 +1,6 @@
 import { Suspense, type ReactNode } from 'react';
 import { useQuery } from '@tanstack/react-query';
-import { Link, NavLink, Outlet, useParams } from 'react-router-dom';
+import { Link, Outlet, useLocation, useParams } from 'react-router-dom';
 import type { Membership, MeResponse } from '../../../shared/schemas/auth';
 import { BrandMark } from '../../components/layout/brand';
 import { ErrorNote } from '../../components/ui/error-note';
@@ -15,7 +15,13 @@ import { RunningTimer } from '../../features/time/components/running-timer';
 import { SignOutButton } from '../components/sign-out-button';
 import { SkipLink } from '../components/skip-link';
 import { StudioSwitcher } from '../components/studio-switcher';
-import { navFor } from '../nav';
+import { navFor, navItemIsCurrent } from '../nav';
+
+/** The path below /studio/:studioId, without slashes at the ends: '' on the studio's home. */
+function useStudioRest(base: string) {
+  const { pathname } = useLocation();
+  return pathname.startsWith(base) ? pathname.slice(base.length).replace(/^\/+|\/+$/g, '') : pathname;
+}
 import { NotFoundScreen } from '../routes/not-found';
 
 function Header({ me, membership, studioName }: { me: MeResponse; membership: Membership; studioName: string }) {
@@ -47,24 +53,25 @@ function Header({ me, membership, studioName }: { me: MeResponse; membership: Me
 function Rail({ membership }: { membership: Membership }) {
   const items = navFor(membership.role);
   const base = `/studio/${membership.studioId}`;
+  const rest = useStudioRest(base);
   return (
     <nav aria-label="Studio" className="hidden w-56 shrink-0 border-r border-primer-300 bg-bone-50 sm:block">
       <ul className="sticky top-14 flex flex-col gap-1 p-3">
         {items.map((item) => (
           <li key={item.label}>
-            <NavLink
+            <Link
               to={item.to ? `${base}/${item.to}` : base}
-              end={item.to === ''}
-              className={({ isActive }) =>
+              aria-current={navItemIsCurrent(item, rest) ? 'page' : undefined}
+              className={
                 cn(
                   'flex min-h-10 items-center gap-3 rounded-control px-3 text-sm text-sable-900 no-underline hover:bg-primer-100',
-                  isActive && 'bg-verdigris-100 font-semibold hover:bg-verdigris-100',
+                  navItemIsCurrent(item, rest) && 'bg-verdigris-100 font-semibold hover:bg-verdigris-100',
                 )
               }
             >
               <item.icon aria-hidden="true" className="size-4 shrink-0" />
               {item.label}
-            </NavLink>
+            </Link>
           </li>
         ))}
       </ul>
@@ -76,24 +83,25 @@ function Rail({ membership }: { membership: Membership }) {
 function BottomBar({ membership }: { membership: Membership }) {
   const items = navFor(membership.role);
   const base = `/studio/${membership.studioId}`;
+  const rest = useStudioRest(base);
   return (
     <nav aria-label="Studio" className="fixed inset-x-0 bottom-0 z-30 border-t border-primer-300 bg-bone-50 sm:hidden">
       <ul className="flex overflow-x-auto">
         {items.map((item) => (
           <li key={item.label} className="min-w-[4.5rem] flex-1">
-            <NavLink
+            <Link
               to={item.to ? `${base}/${item.to}` : base}
-              end={item.to === ''}
-              className={({ isActive }) =>
+              aria-current={navItemIsCurrent(item, rest) ? 'page' : undefined}
+              className={
                 cn(
                   'flex min-h-14 flex-col items-center justify-center gap-0.5 px-1 text-xs text-sable-900 no-underline',
-                  isActive && 'bg-verdigris-100 font-semibold',
+                  navItemIsCurrent(item, rest) && 'bg-verdigris-100 font-semibold',
                 )
               }
             >
               <item.icon aria-hidden="true" className="size-5" />
               {item.label}
-            </NavLink>
+            </Link>
           </li>
         ))}
       </ul>

@@ -6,6 +6,7 @@ const TABS = [
   { to: 'quotes', label: 'Quotes', end: false },
   { to: 'invoices', label: 'Invoices', end: false },
   { to: 'money/prices', label: 'Prices', end: false },
+  { to: 'reports', label: 'The books', end: false },
 ] as const;
 
 /** The owner's way around the money screens; one rail entry ("Quotes & invoices") leads here. */
