@@ -5,6 +5,7 @@ import { id } from '../../../shared/schemas/common';
 import { acceptEnquiryInput, declineEnquiryInput, enquiryListQuery, type EnquiryListQuery } from '../../../shared/schemas/enquiries';
 import { photoSizes, type PhotoSize } from '../../../shared/schemas/photos';
 import { errors } from '../../lib/errors';
+import { PHOTO_FILE_CSP } from '../../lib/images/photos';
 import { member, user, type Allow } from '../../lib/policy';
 import { json, params, query, type RouteTable } from '../../lib/routes';
 import { validate } from '../../lib/validate';
@@ -20,7 +21,7 @@ export function enquiriesRoutes(r: RouteTable, deps: { allow: Allow; enquiries: 
   const servePhoto: RequestHandler = async (req, res) => {
     const p = params<{ enquiryId: number; enquiryPhotoId: number; size: PhotoSize }>(res);
     const f = await enquiries.photoFile(actor(req), p.enquiryId, p.enquiryPhotoId, p.size);
-    res.set({ ETag: f.etag, 'Cache-Control': 'private, max-age=3600', 'Content-Type': f.contentType, 'Content-Disposition': `inline; filename="${f.filename}"` });
+    res.set({ ETag: f.etag, 'Cache-Control': 'private, max-age=3600', 'Content-Type': f.contentType, 'Content-Disposition': `inline; filename="${f.filename}"`, 'Content-Security-Policy': PHOTO_FILE_CSP });
     if (req.fresh) {
       res.status(304).end();
       return;

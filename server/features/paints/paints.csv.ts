@@ -3,6 +3,7 @@
 import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
 import { createPaintInput, paintRowFields, finishLabels, paintTypeLabels, paintTypes, finishes, type CreatePaintInput, type Finish, type Paint, type PaintType } from '../../../shared/schemas/paints';
+import { csvCell, fromCsvCell } from '../../lib/csv';
 import { fieldErrors } from '../../lib/validate';
 
 export const MAX_IMPORT_ROWS = 5000;
@@ -113,7 +114,7 @@ export function parsePaintsCsv(text: string): ParseResult {
     const values: Partial<Record<Column, string>> = {};
     r.record.forEach((v, i) => {
       const c = mapping[i];
-      if (c) values[c] = unguard(v.trim());
+      if (c) values[c] = fromCsvCell(v.trim());
     });
     const problem = checkWords(values);
     if (problem) {
@@ -163,13 +164,10 @@ function firstNonEmptyLineAfter(text: string, line: number): number {
   return Math.min(i + 1, Math.max(1, lines.length));
 }
 
-// A cell starting with = + @ would run as a formula in a spreadsheet; the export puts an apostrophe
-// before it (what spreadsheets themselves do) and the import takes it off again.
-const FORMULA_START = /^[=+@\t\r]/;
-const guard = (v: string) => (FORMULA_START.test(v) ? `'${v}` : v);
-const unguard = (v: string) => (v.startsWith("'") && FORMULA_START.test(v.slice(1)) ? v.slice(1) : v);
-
-/** The rack as CSV with a byte-order mark (so spreadsheet programs read it as UTF-8) and CRLF line ends. */
+/**
+ * The rack as CSV with a byte-order mark (so spreadsheet programs read it as UTF-8) and CRLF line ends.
+ * A cell a spreadsheet would run as a formula gets an apostrophe (server/lib/csv); the import takes it off.
+ */
 export function paintsToCsv(paints: Paint[]): string {
   const rows = paints.map((p) => [
     p.name,
@@ -181,6 +179,6 @@ export function paintsToCsv(paints: Paint[]): string {
     String(p.stock),
     p.lowStockThreshold === null ? '' : String(p.lowStockThreshold),
     p.notes ?? '',
-  ].map(guard));
+  ].map(csvCell));
   return stringify(rows, { bom: true, header: true, columns: columns.map((c) => c.header), record_delimiter: 'windows' });
 }

@@ -4,6 +4,7 @@ import { z } from 'zod';
 import { id } from '../../../shared/schemas/common';
 import { photoFileQuery, photoSizes, updatePhotoInput, uploadPhotosFields, type PhotoSize } from '../../../shared/schemas/photos';
 import { errors } from '../../lib/errors';
+import { PHOTO_FILE_CSP } from '../../lib/images/photos';
 import { member, user, type Allow } from '../../lib/policy';
 import { json, params, query, type RouteTable } from '../../lib/routes';
 import { photoUpload } from '../../lib/upload';
@@ -30,7 +31,7 @@ export function photosRoutes(r: RouteTable, deps: { allow: Allow; photos: Photos
     const p = params<{ photoId: number; size: PhotoSize }>(res);
     const f = await photos.file(member(req), user(req).id, p.photoId, p.size);
     const disposition = query<{ download?: string }>(res).download === '1' ? 'attachment' : 'inline';
-    res.set({ ETag: f.etag, 'Cache-Control': CACHE_CONTROL, 'Content-Type': f.contentType, 'Content-Disposition': `${disposition}; filename="${f.filename}"` });
+    res.set({ ETag: f.etag, 'Cache-Control': CACHE_CONTROL, 'Content-Type': f.contentType, 'Content-Disposition': `${disposition}; filename="${f.filename}"`, 'Content-Security-Policy': PHOTO_FILE_CSP });
     if (req.fresh) {
       res.status(304).end();
       return;

@@ -11,6 +11,13 @@ export type PhotoFormat = (typeof PHOTO_FORMATS)[number];
 export const contentTypes: Record<PhotoFormat, string> = { jpeg: 'image/jpeg', png: 'image/png', webp: 'image/webp' };
 export const extensions: Record<PhotoFormat, string> = { jpeg: 'jpg', png: 'png', webp: 'webp' };
 
+/**
+ * For every response that sends a stored photo file. The bytes are always our own re-encoding, served as
+ * image/* with nosniff; should a browser still open one as a document, it gets no script, plugin, form or
+ * frame, and a unique origin (sandbox), so it can never act as the app.
+ */
+export const PHOTO_FILE_CSP = "default-src 'none'; img-src 'self'; style-src 'unsafe-inline'; sandbox";
+
 export type ProcessedPhoto = {
   /** Format of the stored original (the upload's own); renditions are WebP. */
   format: PhotoFormat;
@@ -38,6 +45,8 @@ const tooManyPixels = () =>
     photos: `At most ${MAX_PHOTO_PIXELS / 1_000_000} megapixels.`,
   });
 
+const isPixelLimit = (err: unknown) => /pixel limit/i.test(String((err as Error)?.message));
+
 /**
  * Checks the content (not the name or the declared type) and the pixel count, from the header alone,
  * before anything is decoded.
@@ -45,8 +54,11 @@ const tooManyPixels = () =>
 export async function inspectPhoto(input: Buffer): Promise<{ format: PhotoFormat; width: number; height: number }> {
   let meta: Metadata;
   try {
-    meta = await sharp(input).metadata();
-  } catch {
+    // The limit here too: sharp's own default (about 268 megapixels) would otherwise fail a bigger
+    // header first, and a decompression bomb would be called "not a photo" instead of "too large".
+    meta = await sharp(input, { limitInputPixels: MAX_PHOTO_PIXELS }).metadata();
+  } catch (err) {
+    if (isPixelLimit(err)) throw tooManyPixels();
     throw unsupported();
   }
   const format = meta.format as PhotoFormat;
@@ -90,7 +102,7 @@ export async function processPhoto(input: Buffer): Promise<ProcessedPhoto> {
     const [original, made] = await Promise.all([encoders.original[format](upright.clone()).toBuffer({ resolveWithObject: true }), renditions()]);
     return { format, width: original.info.width, height: original.info.height, files: { original: original.data, ...made } };
   } catch (err) {
-    if (/pixel limit/i.test(String((err as Error)?.message))) throw tooManyPixels();
+    if (isPixelLimit(err)) throw tooManyPixels();
     throw errors.unsupported('That photo is damaged or incomplete; try saving it again.');
   }
 }
