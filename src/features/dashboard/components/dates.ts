@@ -25,10 +25,6 @@ export function slackWords(slack: number | null): string | null {
   return `${days(slack)} to spare`;
 }
 
-export function monthLabel(month: string): string {
-  const [y, m] = month.split('-').map(Number);
-  return new Intl.DateTimeFormat(undefined, { month: 'short', timeZone: 'UTC' }).format(new Date(Date.UTC(y, m - 1, 15)));
-}
 
 /** "30 Nov" */
 export const dayMonth = (date: string) => new Intl.DateTimeFormat(undefined, { day: 'numeric', month: 'short', timeZone: 'UTC' }).format(new Date(`${date}T12:00:00Z`));

@@ -7,7 +7,7 @@ import { Card } from '../../../components/ui/card';
 import { formatMoney } from '../../../lib/format';
 import { BenchSummaryCards } from './bench-summary';
 import { formatDay, slackWords } from './dates';
-import { RevenueChart } from './revenue-chart';
+import { RevenueChart } from '../../../components/charts/revenue-chart';
 import { Utilisation } from './utilisation';
 
 /** The owner's home: what needs a decision today, how full the weeks are, what is owed and earned. */

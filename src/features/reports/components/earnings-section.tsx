@@ -9,8 +9,8 @@ import { Table, TBody, Td, Th, THead, Tr } from '../../../components/ui/table';
 import { useToast } from '../../../components/ui/toast';
 import { currencyDigits, formatMoney } from '../../../lib/format';
 import { useSaveBooksSettings } from '../api/save-books-settings';
-import { hoursText, monthLabel } from './months';
-import { RevenueChart } from './revenue-chart';
+import { hoursText } from './months';
+import { RevenueChart, monthLabel } from '../../../components/charts/revenue-chart';
 
 /** Commissions whose rate is still moving: deposits in, most of the hours not yet logged. */
 const IN_PROGRESS = ['quoted', 'booked', 'on_bench', 'on_hold'];
@@ -63,7 +63,7 @@ export function EarningsSection({ studioId, report, from, to, onPeriod }: { stud
   const t = report.totals;
   const perHour = (v: number | null) => (v === null ? '—' : `${m(v)} / h`);
   return (
-    <Card title="Earnings" description={`${monthLabel(report.from)} to ${monthLabel(report.to)}, by the day money came in (studio timezone). Refunds count in the month they were made.`}>
+    <Card title="Earnings" description={`${monthLabel(report.from, true)} to ${monthLabel(report.to, true)}, by the day money came in (studio timezone). Refunds count in the month they were made.`}>
       <div className="flex flex-col gap-6">
         <form className="flex flex-wrap items-end gap-3" onSubmit={(e) => e.preventDefault()} aria-label="Period">
           <TextField id="earnings-from" type="month" label="From" value={from} max={to} onChange={(e) => e.target.value && onPeriod(e.target.value, to < e.target.value ? e.target.value : to)} className="w-44" />
@@ -78,7 +78,7 @@ export function EarningsSection({ studioId, report, from, to, onPeriod }: { stud
           <Stat label="Received per hour logged" value={perHour(t.hourlyGross)} />
           <Stat label="Net per hour logged" value={perHour(t.hourlyNet)} hint={`price table: ${m(report.tableHourlyRate)} / h`} />
         </dl>
-        <RevenueChart months={report.months} currency={report.currency} />
+        <RevenueChart months={report.months} currency={report.currency} size="tall" />
         {report.commissions.length === 0 ? (
           <p className="text-sm text-sable-600">No money came in during these months.</p>
         ) : (
