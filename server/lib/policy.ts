@@ -1,5 +1,5 @@
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
-import type { Role } from '../../shared/schemas/common';
+import { decimalId, MAX_ID, type Role } from '../../shared/schemas/common';
 import type { Db } from './db';
 import { errors } from './errors';
 
@@ -20,23 +20,25 @@ declare global {
 
 /** Marks a handler as a policy, so the route table can insist that every route starts with one. */
 export const POLICY = Symbol('policy');
-type Policy = RequestHandler & { [POLICY]: string };
+/** Who a route declares it lets through, readable from the router (the security tests build their matrix from it). */
+export type DeclaredPolicy = { kind: 'public' | 'signed-in' | 'allow'; roles: Role[] };
+type Policy = RequestHandler & { [POLICY]: string; declared: DeclaredPolicy };
 
-function mark(fn: RequestHandler, label: string): Policy {
-  return Object.assign(fn, { [POLICY]: label });
+function mark(fn: RequestHandler, label: string, declared: DeclaredPolicy): Policy {
+  return Object.assign(fn, { [POLICY]: label, declared: { kind: declared.kind, roles: [...declared.roles] } });
 }
 
 export const isPolicy = (fn: unknown): fn is Policy => typeof fn === 'function' && POLICY in fn;
 
 /** Anyone, signed in or not (public pages, sign-in, webhooks with their own signature check). */
-export const publicRoute = () => mark((_req, _res, next) => next(), 'public');
+export const publicRoute = () => mark((_req, _res, next) => next(), 'public', { kind: 'public', roles: [] });
 
 /** Any signed-in person, no studio involved. */
 export const signedIn = () =>
   mark((req, _res, next) => {
     if (!req.user) throw errors.unauthenticated();
     next();
-  }, 'signed-in');
+  }, 'signed-in', { kind: 'signed-in', roles: [] });
 
 /**
  * Studio routes: the caller must be a member of :studioId with one of the roles.
@@ -46,8 +48,9 @@ export function allowFactory(db: Db) {
   return (...roles: Role[]) =>
     mark(async (req: Request, _res: Response, next: NextFunction) => {
       if (!req.user) throw errors.unauthenticated();
-      const studioId = Number(req.params.studioId);
-      if (!Number.isSafeInteger(studioId) || studioId <= 0) throw errors.notFound();
+      const raw = String(req.params.studioId);
+      const studioId = decimalId.test(raw) ? Number(raw) : Number.NaN;
+      if (!Number.isSafeInteger(studioId) || studioId <= 0 || studioId > MAX_ID) throw errors.notFound();
       const row = await db('memberships as m')
         .leftJoin('clients as c', function () {
           this.on('c.studio_id', '=', 'm.studio_id').andOn('c.user_id', '=', 'm.user_id');
@@ -58,7 +61,7 @@ export function allowFactory(db: Db) {
       if (!roles.includes(row.role)) throw errors.forbidden();
       req.member = { studioId, role: row.role, clientId: row.client_id ?? null };
       next();
-    }, `allow(${roles.join(',')})`);
+    }, `allow(${roles.join(',')})`, { kind: 'allow', roles });
 }
 
 export type Allow = ReturnType<typeof allowFactory>;

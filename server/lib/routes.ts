@@ -1,5 +1,5 @@
 import type { Request, RequestHandler, Response, Router } from 'express';
-import { isPolicy } from './policy';
+import { isPolicy, type DeclaredPolicy } from './policy';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
 
@@ -33,12 +33,18 @@ export const json =
 export const params = <T = Record<string, number>>(res: Response) => res.locals.params as T;
 export const query = <T>(res: Response) => res.locals.query as T;
 
-/** Lists `METHOD /api/path` for every route on the API router, read from Express itself. */
-export function listRoutes(router: Router): { method: string; path: string }[] {
-  const out: { method: string; path: string }[] = [];
-  for (const layer of (router as unknown as { stack: { route?: { path: string; methods: Record<string, boolean> } }[] }).stack) {
+/**
+ * Lists `METHOD /api/path` for every route on the API router, read from Express itself, with the policy each
+ * route declares (its first handler: public, signed-in, or allow(...roles)).
+ */
+export function listRoutes(router: Router): { method: string; path: string; policy: DeclaredPolicy | null }[] {
+  const out: { method: string; path: string; policy: DeclaredPolicy | null }[] = [];
+  type Layer = { route?: { path: string; methods: Record<string, boolean>; stack?: { handle: unknown }[] } };
+  for (const layer of (router as unknown as { stack: Layer[] }).stack) {
     if (!layer.route) continue;
-    for (const m of Object.keys(layer.route.methods)) if (m !== '_all') out.push({ method: m.toUpperCase(), path: `/api${layer.route.path}` });
+    const first = layer.route.stack?.[0]?.handle;
+    const policy = isPolicy(first) ? { kind: first.declared.kind, roles: [...first.declared.roles] } : null;
+    for (const m of Object.keys(layer.route.methods)) if (m !== '_all') out.push({ method: m.toUpperCase(), path: `/api${layer.route.path}`, policy });
   }
   return out;
 }

@@ -40,8 +40,13 @@ export const timeZone = z
   .trim()
   .refine(isTimeZone, 'Use a timezone name such as Europe/Berlin or America/Chicago.');
 
+/** An id as text is plain decimal digits: '12', never '0x0c', '1e1', '12.0' or ' 12' (no second spelling of one record). */
+export const decimalId = /^[1-9][0-9]{0,9}$/;
+/** Ids are database serials: PostgreSQL's `integer` ends here, so a larger number can name no record. */
+export const MAX_ID = 2_147_483_647;
+
 /** Route ids are positive integers; anything else is a 404 at the policy, never a 500. */
-export const id = z.coerce.number().int().positive();
+export const id = z.preprocess((v) => (typeof v === 'string' ? (decimalId.test(v) ? Number(v) : Number.NaN) : v), z.number().int().positive().max(MAX_ID));
 
 export const optionalText = (max: number) =>
   z
