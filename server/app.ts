@@ -119,6 +119,9 @@ import { publicStudioService } from './features/public-studio/public-studio.serv
 import { shipmentsRepository } from './features/shipments/shipments.repository';
 import { shipmentsRoutes } from './features/shipments/shipments.routes';
 import { shipmentsService } from './features/shipments/shipments.service';
+import { privacyRepository } from './features/privacy/privacy.repository';
+import { privacyRoutes } from './features/privacy/privacy.routes';
+import { privacyService } from './features/privacy/privacy.service';
 import { loginInput } from '../shared/schemas/auth';
 import { seedDemo } from '../seeds/demo';
 
@@ -249,6 +252,8 @@ export async function createApp(config: Config) {
   const modelsIn = modelsInService({ db, repo: modelsInRepository(db), activity, mailer, clock: config.clock, publicUrl: config.publicUrl });
   const shipments = shipmentsService({ db, repo: shipmentsRepository(db), commissions, activity, mailer, clock: config.clock, publicUrl: config.publicUrl });
   commissions.guardStatusChange((trx, change) => shipments.shippedGuard(trx, change));
+  // A client's data: the export (ZIP with photos) and the erase that keeps only what invoices need, anonymised.
+  const privacy = privacyService({ db, repo: privacyRepository(db), storage, clock: config.clock, log });
 
   if (config.demo && !(await db('studios').first('id'))) {
     await seedDemo(db, { clock: config.clock, hash: auth.hash, studios, photoStorage: storage });
@@ -357,6 +362,7 @@ export async function createApp(config: Config) {
   enquiriesRoutes(r, { allow, enquiries });
   modelsInRoutes(r, { allow, modelsIn });
   shipmentsRoutes(r, { allow, shipments });
+  privacyRoutes(r, { allow, privacy });
 
   // The payment webhook needs the exact bytes for its signature check, so it is parsed raw, before JSON.
   app.use('/api/webhooks/payments', express.raw({ type: () => true, limit: '1mb' }));

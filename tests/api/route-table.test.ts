@@ -37,6 +37,10 @@ const table: Row[] = [
   ['GET', '/api/studios/:studioId/clients/:clientId', 401, 200, 200, 403, 404],
   ['PATCH', '/api/studios/:studioId/clients/:clientId', 401, 200, 403, 403, 404],
   ['POST', '/api/studios/:studioId/clients/:clientId/invite', 401, 409, 403, 403, 404],
+  // Privacy (issue 8): the client's data as a ZIP, what stops an erase, and the erase (the empty body lacks the typed name).
+  ['GET', '/api/studios/:studioId/clients/:clientId/privacy', 401, 200, 403, 403, 404],
+  ['GET', '/api/studios/:studioId/clients/:clientId/export', 401, 200, 403, 403, 404],
+  ['POST', '/api/studios/:studioId/clients/:clientId/erase', 401, 400, 403, 403, 404],
   // Commissions, figures, stages, time, board, studio settings (issue 3, server part E). The client of studio A owns the commission.
   ['GET', '/api/studios/:studioId/commissions', 401, 200, 200, 200, 404],
   ['POST', '/api/studios/:studioId/commissions', 401, 400, 403, 403, 404],
