@@ -13,9 +13,17 @@ import type { CalendarFeedRepository, FeedRow } from './calendar-feed.repository
 const TOKEN_RE = /^[A-Za-z0-9_-]{43}$/;
 const dateArray = (d: string): DateArray => d.split('-').map(Number) as DateArray;
 
+/**
+ * Text for an iCalendar value. ics escapes backslash, semicolon and comma and writes LF and CRLF as an
+ * escaped n, but passes a bare CR (or any other control character) through, and some readers end a line
+ * at a bare CR: a title typed with one could then add properties of its own. Every line break becomes
+ * LF, other control characters go.
+ */
+export const icsText = (s: string) => s.replace(/\r\n?/g, '\n').replace(/[^\P{Cc}\n\t]/gu, '');
+
 function allDay(uid: string, date: string, title: string, description: string, stamp: number): EventAttributes {
   // `timestamp` (DTSTAMP) is read by ics but missing from its types; it comes from our clock, not the machine's.
-  return { uid, start: dateArray(date), end: dateArray(addDays(date, 1)), title, description, transp: 'TRANSPARENT', status: 'CONFIRMED', timestamp: stamp } as EventAttributes;
+  return { uid, start: dateArray(date), end: dateArray(addDays(date, 1)), title: icsText(title), description: icsText(description), transp: 'TRANSPARENT', status: 'CONFIRMED', timestamp: stamp } as EventAttributes;
 }
 
 /** Due dates and projected ready-to-ship dates of the queue as all-day events in the studio's calendar days. */
@@ -70,7 +78,7 @@ export function calendarFeedService(deps: { db: Db; repo: CalendarFeedRepository
       const now = clock.now();
       const { error, value } = createEvents(feedEvents(feed.studio_id, commissions, now.getTime()), {
         productId: '-//Sablework//Studio calendar//EN',
-        calName: `${feed.studio_name} · Sablework`,
+        calName: icsText(`${feed.studio_name} · Sablework`),
       });
       if (error || value === null) throw error ?? new Error('The calendar could not be written.');
       await repo.touch(feed.id, iso(now));

@@ -79,22 +79,30 @@ export function invoicePdf(d: InvoiceDocument): Promise<Buffer> {
     });
   };
   /** Height of wrapped text (measured in the main subset; other subsets have the same metrics). */
-  const heightOf = (s: string, w: number, size = 10) => doc.font(fontName('latin', false)).fontSize(size).heightOfString(s, { width: w });
+  const heightOf = (s: string, w: number, size = 10, bold = false) => doc.font(fontName('latin', bold)).fontSize(size).heightOfString(s, { width: w });
 
-  // Header: studio and document
-  text(d.studio.name, left, 50, { bold: true, size: 18 });
+  // Header: studio and document. Names and addresses wrap within their column rather than run off it
+  // or under the next row: a legal document shows every word of them.
+  const nameHeight = Math.max(22, heightOf(d.studio.name, width, 18, true));
+  text(d.studio.name, left, 50, { bold: true, size: 18, width, lineBreak: true });
+  const titleY = 50 + nameHeight + 8;
   const title = `${invoiceKindLabels[inv.kind]}${inv.number ? ` ${inv.number}` : ' (draft)'}`;
-  text(title, left, 80, { size: 13, bold: true, color: RULE });
-  doc.moveTo(left, 102).lineTo(left + width, 102).lineWidth(1.5).strokeColor(RULE).stroke();
+  text(title, left, titleY, { size: 13, bold: true, color: RULE });
+  doc.moveTo(left, titleY + 22).lineTo(left + width, titleY + 22).lineWidth(1.5).strokeColor(RULE).stroke();
 
   // Who and when
-  let y = 115;
+  let y = titleY + 35;
   text('Billed to', left, y, { size: 9, color: MUTED });
   const c = d.client;
   const addressLines = c
     ? [c.name, c.address_line1, c.address_line2, [c.address_postal_code, c.address_city].filter(Boolean).join(' '), [c.address_region, c.address_country].filter(Boolean).join(', '), c.email].filter((l): l is string => Boolean(l))
     : [inv.client.name];
-  addressLines.forEach((l, i) => text(l, left, y + 14 + i * 14, { bold: i === 0 }));
+  const addressWidth = width / 2 - 10;
+  let addressY = y + 14;
+  addressLines.forEach((l, i) => {
+    text(l, left, addressY, { bold: i === 0, width: addressWidth, lineBreak: true });
+    addressY += Math.max(14, heightOf(l, addressWidth, 10, i === 0));
+  });
   const facts: [string, string][] = [
     ['Status', invoiceStatusLabels[inv.status]],
     ['Issued', inv.issuedAt ? inv.issuedAt.slice(0, 10) : 'not yet'],
@@ -104,11 +112,14 @@ export function invoicePdf(d: InvoiceDocument): Promise<Buffer> {
     ...(inv.taxId ? ([[`${inv.taxLabel} ID`, inv.taxId]] as [string, string][]) : []),
   ];
   const factX = left + width / 2 + 20;
-  facts.forEach(([k, v], i) => {
-    text(k, factX, y + i * 14, { size: 9, color: MUTED });
-    text(v, factX + 90, y + i * 14, { width: width / 2 - 110, ellipsis: true });
-  });
-  y += Math.max(addressLines.length + 1, facts.length) * 14 + 24;
+  const factWidth = width / 2 - 110;
+  let factY = y;
+  for (const [k, v] of facts) {
+    text(k, factX, factY, { size: 9, color: MUTED, width: 85, lineBreak: true });
+    text(v, factX + 90, factY, { width: factWidth, lineBreak: true });
+    factY += Math.max(14, heightOf(k, 85, 9), heightOf(v, factWidth));
+  }
+  y = Math.max(addressY, factY) + 24;
 
   // Lines
   const col = { desc: left, qty: left + width - 250, unit: left + width - 200, rate: left + width - 125, amount: left + width - 80 };
@@ -118,17 +129,19 @@ export function invoicePdf(d: InvoiceDocument): Promise<Buffer> {
     text('Unit', col.unit, yy, { size: 9, color: MUTED, width: 70, align: 'right' });
     text(inv.taxLabel, col.rate, yy, { size: 9, color: MUTED, width: 40, align: 'right' });
     text('Amount', col.amount, yy, { size: 9, color: MUTED, width: 80, align: 'right' });
-    doc.moveTo(left, yy + 14).lineTo(left + width, yy + 14).lineWidth(0.5).strokeColor(MUTED).stroke();
+    doc.moveTo(left, yy + headerHeight - 8).lineTo(left + width, yy + headerHeight - 8).lineWidth(0.5).strokeColor(MUTED).stroke();
   };
+  // The tax column's heading is the studio's own label, which may wrap in its narrow column.
+  const headerHeight = Math.max(14, heightOf(inv.taxLabel, 40, 9)) + 8;
   header(y);
-  y += 22;
+  y += headerHeight;
   for (const l of inv.lines) {
     const h = Math.max(14, heightOf(l.description, col.qty - col.desc - 10));
     if (y + h > doc.page.height - 180) {
       doc.addPage();
       y = 50;
       header(y);
-      y += 22;
+      y += headerHeight;
     }
     text(l.description, col.desc, y, { width: col.qty - col.desc - 10, lineBreak: true });
     text(String(l.quantity), col.qty, y, { width: 40, align: 'right' });
@@ -156,7 +169,7 @@ export function invoicePdf(d: InvoiceDocument): Promise<Buffer> {
   for (const [k, v, bold] of totals) {
     text(k, col.qty - 120, y, { width: 200, align: 'right', bold, color: bold ? INK : MUTED });
     text(v, col.amount - 20, y, { width: 100, align: 'right', bold });
-    y += 16;
+    y += Math.max(16, heightOf(k, 200, 10, bold) + 2);
   }
 
   // Payments
@@ -167,9 +180,10 @@ export function invoicePdf(d: InvoiceDocument): Promise<Buffer> {
     for (const p of inv.payments) {
       const method = { card: 'Card', bank: 'Bank transfer', cash: 'Cash', other: 'Other' }[p.method];
       const extra = p.refundedMinor ? ` (refunded ${money(p.refundedMinor)})` : '';
-      text(`${p.receivedAt.slice(0, 10)}  ${method}${p.reference && p.method !== 'card' ? ` · ${p.reference}` : ''}${extra}`, left, y, { width: width - 110 });
+      const line = `${p.receivedAt.slice(0, 10)}  ${method}${p.reference && p.method !== 'card' ? ` · ${p.reference}` : ''}${extra}`;
+      text(line, left, y, { width: width - 110, lineBreak: true });
       text(money(p.amountMinor), col.amount - 20, y, { width: 100, align: 'right' });
-      y += 14;
+      y += Math.max(14, heightOf(line, width - 110));
     }
   }
   if (inv.note) {

@@ -18,12 +18,14 @@ import { cancelCommissionInput } from '../../../shared/schemas/quotes';
 import { member, user, type Allow } from '../../lib/policy';
 import { json, params, query, type RouteTable } from '../../lib/routes';
 import { validate } from '../../lib/validate';
+import { csvCell } from '../../lib/csv';
 import { invoicePdf } from './invoice-pdf';
 import type { InvoicesService } from './invoices.service';
 
 const invoiceParams = z.object({ studioId: id, invoiceId: id });
 const commissionParams = z.object({ studioId: id, commissionId: id });
 const actor = (req: Request) => ({ ...member(req), userId: user(req).id });
+const guardRow = (row: Record<string, string | number | null | undefined>) => Object.fromEntries(Object.entries(row).map(([k, v]) => [k, csvCell(v)]));
 
 export function invoicesRoutes(r: RouteTable, deps: { allow: Allow; invoices: InvoicesService }) {
   const { allow, invoices } = deps;
@@ -34,8 +36,10 @@ export function invoicesRoutes(r: RouteTable, deps: { allow: Allow; invoices: In
     const q = query<InvoiceExportQuery>(res);
     const { rows } = await invoices.exportRows(member(req), q.from ?? null, q.to ?? null);
     const money = (m: number, c: string) => fromMinor(m, c);
+    // Every cell through csvCell: client names, titles and tax words are typed by people, and a cell
+    // starting with = + - @ would run as a formula in a spreadsheet.
     const csv = stringify(
-      rows.map((i) => ({
+      rows.map((i) => guardRow({
         number: i.number,
         kind: invoiceKindLabels[i.kind],
         status: invoiceStatusLabels[i.status],
