@@ -266,9 +266,14 @@ export async function createApp(config: Config) {
       auth.verifyLogin(loginInput.parse(req.body), req.ip ?? 'unknown').then((u) => done(null, u), done);
     }),
   );
-  passport.serializeUser((u, done) => done(null, (u as AuthUser).id));
-  passport.deserializeUser((id: number, done) => {
-    authRepo.findUserById(id).then((u) => done(null, u ? toUser(u) : false), done);
+  // The session keeps the user id and the person's session epoch at sign-in; a password reset raises the epoch,
+  // which signs out every older session (older sessions that kept only the id count as epoch 0).
+  passport.serializeUser((u, done) => {
+    authRepo.findUserById((u as AuthUser).id).then((row) => (row ? done(null, { id: row.id, epoch: row.session_epoch ?? 0 }) : done(new Error('signed-in user vanished'))), done);
+  });
+  passport.deserializeUser((kept: number | { id: number; epoch: number }, done) => {
+    const { id, epoch } = typeof kept === 'number' ? { id: kept, epoch: 0 } : kept;
+    authRepo.findUserById(id).then((u) => done(null, u && (u.session_epoch ?? 0) === epoch ? toUser(u) : false), done);
   });
 
   const app = express();

@@ -1,6 +1,6 @@
 import type { Db } from '../../lib/db';
 
-export type UserRow = { id: number; email: string; name: string; password_hash: string; email_notices: boolean | number };
+export type UserRow = { id: number; email: string; name: string; password_hash: string; email_notices: boolean | number; session_epoch: number };
 
 export const toUser = (r: UserRow) => ({ id: r.id, email: r.email, name: r.name, emailNotices: Boolean(r.email_notices) });
 
@@ -36,6 +36,11 @@ export function authRepository(db: Db) {
     findReset: (tokenHash: string, trx: Db = db) => trx('password_resets').where({ token_hash: tokenHash }).first(),
     /** Marks the reset used only if it still was unused: the row count tells whether this caller won. */
     useReset: (id: number, now: string, trx: Db = db) => trx('password_resets').where({ id }).whereNull('used_at').update({ used_at: now }),
+    /** The person's other unused reset links stop working. */
+    dropOtherResets: (userId: number, keepId: number, now: string, trx: Db = db) =>
+      trx('password_resets').where({ user_id: userId }).whereNull('used_at').whereNot({ id: keepId }).update({ used_at: now }),
+    /** Ends every session of the person: a session remembers the epoch it was signed in at, and only the current one counts. */
+    endSessions: (userId: number, trx: Db = db) => trx('users').where({ id: userId }).increment('session_epoch', 1),
   };
 }
 

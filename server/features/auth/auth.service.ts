@@ -1,3 +1,4 @@
+import crypto from 'node:crypto';
 import bcrypt from 'bcryptjs';
 import type { LoginInput, ResetConfirmInput, SignupInput, UpdateMeInput } from '../../../shared/schemas/auth';
 import { addMs, HOUR, iso, type Clock } from '../../lib/clock';
@@ -10,8 +11,20 @@ import type { StudiosService } from '../studios/studios.service';
 import { toUser, type AuthRepository } from './auth.repository';
 
 const THROTTLE_WINDOW_MS = 15 * 60_000;
-const THROTTLE_MAX_FAILURES = 10;
+/**
+ * Failed sign-ins allowed within the window: for one e-mail from one network address; for one account from any
+ * number of addresses (20 per 15 minutes is at most 80 an hour, under ASVS 2.2.1's 100); and for one address over
+ * all accounts (one machine trying many accounts).
+ */
+export const THROTTLE_LIMITS = { pair: 10, account: 20, address: 50 } as const;
 const RESET_TTL_MS = HOUR;
+
+/**
+ * bcrypt reads only the first 72 bytes of its input. A longer password (up to 200 characters of any script) is
+ * condensed with SHA-256 first, so every character counts; shorter ones go in as they are (their hashes stay valid).
+ */
+export const bcryptInput = (password: string) =>
+  Buffer.byteLength(password, 'utf8') > 72 ? `sha256:${crypto.createHash('sha256').update(password, 'utf8').digest('base64')}` : password;
 
 // A fixed hash compared against when the address is unknown, so both paths take the same time.
 const DUMMY_HASH = bcrypt.hashSync('not-a-real-password-for-timing', 10);
@@ -27,7 +40,7 @@ export function authService(deps: {
 }) {
   const { db, repo, clock, mailer } = deps;
   const now = () => iso(clock.now());
-  const hash = (password: string) => bcrypt.hash(password, deps.bcryptRounds);
+  const hash = (password: string) => bcrypt.hash(bcryptInput(password), deps.bcryptRounds);
 
   async function me(userId: number) {
     const u = await repo.findUserById(userId);
@@ -38,7 +51,7 @@ export function authService(deps: {
   return {
     me,
     hash,
-    verifyPassword: (password: string, passwordHash: string) => bcrypt.compare(password, passwordHash),
+    verifyPassword: (password: string, passwordHash: string) => bcrypt.compare(bcryptInput(password), passwordHash),
 
     async signup(input: SignupInput) {
       const passwordHash = await hash(input.password);
@@ -53,22 +66,34 @@ export function authService(deps: {
       return me(userId);
     },
 
-    /** Checks e-mail + password with throttling per e-mail and address: 10 failures in 15 minutes → 429. */
+    /**
+     * Checks e-mail + password with throttling (THROTTLE_LIMITS within 15 minutes → 429 with Retry-After): per e-mail
+     * and address, per account, per address. Once a limit is reached even the right password waits.
+     */
     async verifyLogin(input: LoginInput, ip: string) {
-      const key = `${input.email.toLowerCase()}|${ip}`;
+      const email = input.email.toLowerCase();
+      const keys = [
+        { key: `${email}|${ip}`, max: THROTTLE_LIMITS.pair },
+        { key: `account:${email}`, max: THROTTLE_LIMITS.account },
+        { key: `address:${ip}`, max: THROTTLE_LIMITS.address },
+      ];
       const since = iso(addMs(clock.now(), -THROTTLE_WINDOW_MS));
-      if ((await repo.countFailures(key, since)) >= THROTTLE_MAX_FAILURES) {
-        const oldest = await repo.oldestFailure(key, since);
-        const retryMs = oldest ? new Date(oldest).getTime() + THROTTLE_WINDOW_MS - clock.now().getTime() : THROTTLE_WINDOW_MS;
-        throw errors.throttled(retryMs / 1000);
+      let retryMs = 0;
+      for (const k of keys) {
+        if ((await repo.countFailures(k.key, since)) < k.max) continue;
+        const oldest = await repo.oldestFailure(k.key, since);
+        retryMs = Math.max(retryMs, oldest ? new Date(oldest).getTime() + THROTTLE_WINDOW_MS - clock.now().getTime() : THROTTLE_WINDOW_MS);
       }
+      if (retryMs > 0) throw errors.throttled(retryMs / 1000);
       const u = await repo.findUserByEmail(input.email);
-      const ok = await bcrypt.compare(input.password, u?.password_hash ?? DUMMY_HASH);
+      const ok = await bcrypt.compare(bcryptInput(input.password), u?.password_hash ?? DUMMY_HASH);
       if (!u || !ok) {
-        await repo.addFailure(key, now());
+        for (const k of keys) await repo.addFailure(k.key, now());
         throw errors.invalidCredentials();
       }
-      await repo.clearFailures(key);
+      // The address's count stays: signing in to one's own account must not reset a run of guesses at others.
+      await repo.clearFailures(keys[0].key);
+      await repo.clearFailures(keys[1].key);
       return toUser(u);
     },
 
@@ -100,8 +125,29 @@ export function authService(deps: {
         if (r.expires_at <= now()) throw errors.gone('This reset link has expired (links last one hour). Ask for a new one.');
         if ((await repo.useReset(r.id, now(), trx)) !== 1) throw errors.gone('This reset link has already been used. Ask for a new one.');
         await repo.updateUser(r.user_id, { password_hash: passwordHash }, now(), trx);
+        // Every session of this person from before the reset ends (the caller is signed in afresh by the route),
+        // and so do the other reset links they were sent.
+        await repo.endSessions(r.user_id, trx);
+        await repo.dropOtherResets(r.user_id, r.id, now(), trx);
+        const u = (await repo.findUserById(r.user_id, trx))!;
+        await mailer.enqueue(
+          {
+            to: u.email,
+            template: 'password-changed',
+            ...templates.notice({
+              subject: 'Your Sablework password was changed',
+              lines: [
+                `Hello ${u.name},`,
+                'The password of this account was just changed through a reset link, and every device that was signed in has been signed out.',
+                'If it was not you, ask for a new reset link from the sign-in page straight away.',
+              ],
+            }),
+          },
+          trx,
+        );
         return r.user_id as number;
       });
+      mailer.kick();
       return me(userId);
     },
 

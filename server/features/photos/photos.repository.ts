@@ -75,6 +75,11 @@ export function photosRepository(db: Db) {
     update: (studioId: number, id: number, patch: { caption?: string | null; shared?: boolean }, trx: Db) =>
       trx('photos').where({ studio_id: studioId, id }).update(patch),
     remove: (studioId: number, id: number, trx: Db) => trx('photos').where({ studio_id: studioId, id }).delete(),
+    /** Every storage key a row refers to, in all studios: photos and the enquiry photos that share their layout. */
+    async storageKeys() {
+      const [photos, enquiryPhotos] = await Promise.all([db('photos').pluck('storage_key'), db('enquiry_photos').pluck('storage_key')]);
+      return [...photos, ...enquiryPhotos] as string[];
+    },
     logActivity: (trx: Db, a: { studioId: number; commissionId: number; userId: number; action: string; detail: object; at: string }) =>
       trx('activity').insert({ studio_id: a.studioId, commission_id: a.commissionId, user_id: a.userId, action: a.action, detail: JSON.stringify(a.detail), at: a.at }),
   };

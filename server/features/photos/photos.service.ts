@@ -194,6 +194,25 @@ export function photosService(deps: { db: Db; repo: PhotosRepository; storage: F
       await Promise.all(allSizes(p).map((k) => storage.delete(k)));
     },
 
+    /**
+     * At start-up, before anything is uploaded: removes the photo files no row refers to, which a crash leaves
+     * between an upload's file commit and its transaction's, or between a delete's commit and its file removal.
+     * Only folders shaped like the photo keys (`<studioId>/<uuid>`) are looked at. Returns how many files went.
+     */
+    async sweepLeftovers() {
+      if (!storage.list) return 0;
+      const files = await storage.list();
+      const known = new Set(await repo.storageKeys());
+      let removed = 0;
+      for (const key of files) {
+        const folder = /^(\d+\/[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12})\/[a-z]+\.[a-z]+$/.exec(key)?.[1];
+        if (!folder || known.has(folder)) continue;
+        await storage.delete(key);
+        removed++;
+      }
+      return removed;
+    },
+
     /** What the file route needs before it opens anything: checks visibility first, so a 304 never leaks. */
     async file(m: Member, userId: number, photoId: number, size: PhotoSize) {
       const p = await visiblePhoto(m, userId, photoId);

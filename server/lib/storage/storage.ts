@@ -12,6 +12,11 @@ export interface FileStorage {
   read(key: string): Promise<{ stream: Readable; size: number } | null>;
   /** Removes the file; a missing file is not an error. */
   delete(key: string): Promise<void>;
+  /**
+   * Every committed file's key, for the start-up sweep of files no row refers to (left by a crash between
+   * a file's commit and its transaction's). Optional: a store that cannot list is not swept.
+   */
+  list?(): Promise<string[]>;
 }
 
 export interface StagedFile {

@@ -1,0 +1,280 @@
+// Sessions, sign-in throttling, reset links and passwords, attacked from outside: a planted session id, a cookie
+// kept after sign-out, reset links reused, late, of another person or of another kind, guessing from one address
+// or from many, passwords longer than bcrypt reads.
+import request from 'supertest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { THROTTLE_LIMITS } from '../../server/features/auth/auth.service';
+import { Caller, PASSWORD, linkIn, mailTo, signInAs, signUp, startTestApp, type TestApp } from '../support/app';
+
+let sw: TestApp;
+beforeAll(async () => {
+  // Behind a proxy, so tests choose the caller's address with X-Forwarded-For (the throttle counts per address).
+  sw = await startTestApp({ trustProxy: true });
+});
+afterAll(() => sw.stop());
+
+type Res = { headers: Record<string, unknown>; body?: unknown; text?: string };
+/** The `sablework.sid=…` pair a response sets, if any. */
+const cookieOf = (res: Res) => ((res.headers['set-cookie'] as string[] | undefined) ?? []).find((c) => c.startsWith('sablework.sid='))?.split(';')[0];
+/** The session id inside the signed cookie value (`s:<id>.<signature>`). */
+const sidIn = (cookie: string) => decodeURIComponent(cookie.slice('sablework.sid='.length)).replace(/^s:/, '').split('.')[0];
+/** Who the server thinks a bare cookie belongs to: the e-mail, or the status when nobody. */
+async function whoHas(cookie: string) {
+  const res = await request(sw.app).get('/api/auth/me').set('Cookie', cookie);
+  return res.status === 200 ? (res.body.user.email as string) : res.status;
+}
+async function resetLink(email: string) {
+  expect((await new Caller(sw.app).post('/api/auth/password-reset', { email })).status).toBe(202);
+  const mails = await mailTo(sw, email);
+  return linkIn(mails.filter((m) => m.subject.includes('new Sablework password')).at(-1)!.text, '/reset-password/');
+}
+/** A caller that first picks up an anonymous session (as a planted cookie would be), returning that cookie. */
+async function withPlantedSession() {
+  const c = new Caller(sw.app);
+  const planted = cookieOf(await c.agent.get('/api/auth/csrf'))!;
+  expect(planted).toBeTruthy();
+  return { c, planted };
+}
+
+describe('session fixation', () => {
+  beforeAll(() => signUp(sw, { email: 'fixed@sessions.test' }));
+
+  it('sign-in: the session id from before is not signed in afterwards; the new id is', async () => {
+    const { c, planted } = await withPlantedSession();
+    const login = await c.post('/api/auth/login', { email: 'fixed@sessions.test', password: PASSWORD });
+    expect(login.status).toBe(200);
+    const fresh = cookieOf(login)!;
+    expect(sidIn(fresh)).not.toBe(sidIn(planted));
+    expect(await whoHas(planted)).toBe(401);
+    expect(await whoHas(fresh)).toBe('fixed@sessions.test');
+  });
+
+  it('sign-up: a new session id, the old one stays anonymous', async () => {
+    const { c, planted } = await withPlantedSession();
+    const res = await c.post('/api/auth/signup', { name: 'New', email: 'new@sessions.test', password: PASSWORD, studioName: 'Fresh Studio', currency: 'EUR', timezone: 'UTC' });
+    expect(res.status).toBe(201);
+    expect(sidIn(cookieOf(res)!)).not.toBe(sidIn(planted));
+    expect(await whoHas(planted)).toBe(401);
+    expect(await whoHas(cookieOf(res)!)).toBe('new@sessions.test');
+  });
+
+  it('invitation accept: a new session id, the old one stays anonymous', async () => {
+    const owner = await signInAs(sw, 'new@sessions.test');
+    const studioId = (await owner.get('/api/auth/me')).body.memberships[0].studioId;
+    expect((await owner.post(`/api/studios/${studioId}/invitations`, { email: 'invited@sessions.test', role: 'painter' })).status).toBe(201);
+    const token = linkIn((await mailTo(sw, 'invited@sessions.test'))[0].text, '/invite/');
+    const { c, planted } = await withPlantedSession();
+    const res = await c.post(`/api/invitations/${token}/accept`, { name: 'Invited', password: PASSWORD });
+    expect(res.status).toBe(200);
+    expect(sidIn(cookieOf(res)!)).not.toBe(sidIn(planted));
+    expect(await whoHas(planted)).toBe(401);
+    expect(await whoHas(cookieOf(res)!)).toBe('invited@sessions.test');
+  });
+
+  it('password reset: a new session id, the old one stays anonymous', async () => {
+    const token = await resetLink('fixed@sessions.test');
+    const { c, planted } = await withPlantedSession();
+    const res = await c.post('/api/auth/password-reset/confirm', { token, password: 'a fresh long secret' });
+    expect(res.status).toBe(200);
+    expect(sidIn(cookieOf(res)!)).not.toBe(sidIn(planted));
+    expect(await whoHas(planted)).toBe(401);
+    expect(await whoHas(cookieOf(res)!)).toBe('fixed@sessions.test');
+  });
+
+  it('an old session id is dead after sign-out, and so is its CSRF token', async () => {
+    const c = new Caller(sw.app);
+    const login = await c.post('/api/auth/login', { email: 'new@sessions.test', password: PASSWORD });
+    const cookie = cookieOf(login)!;
+    const token = await c.csrf();
+    expect(await whoHas(cookie)).toBe('new@sessions.test');
+    expect((await c.post('/api/auth/logout')).status).toBe(204);
+    expect(await whoHas(cookie)).toBe(401);
+    // replaying the old cookie with its token cannot act either
+    const replay = await request(sw.app).patch('/api/auth/me').set('Cookie', cookie).set('x-csrf-token', token).send({ name: 'Ghost' });
+    expect([401, 403]).toContain(replay.status);
+    expect((await sw.db('users').where({ email: 'new@sessions.test' }).first('name')).name).toBe('New');
+  });
+
+  it('the session id is only ever in the cookie, never in a body or a URL', async () => {
+    const c = new Caller(sw.app);
+    const responses = [await c.agent.get('/api/auth/csrf')];
+    responses.push(await c.post('/api/auth/login', { email: 'new@sessions.test', password: PASSWORD }));
+    const sid = sidIn(cookieOf(responses[1])!);
+    responses.push(await c.get('/api/auth/me'), await c.get('/api/auth/csrf'));
+    for (const res of responses) {
+      expect(JSON.stringify(res.body ?? '')).not.toContain(sid);
+      expect(String(res.headers.location ?? '')).not.toContain(sid);
+    }
+  });
+
+  it('session ids are 192-bit random strings, never repeated', async () => {
+    const ids = new Set<string>();
+    for (let i = 0; i < 25; i++) ids.add(sidIn(cookieOf(await request(sw.app).get('/api/auth/csrf'))!));
+    expect(ids.size).toBe(25);
+    // 24 random bytes in base64url (express-session's uid-safe): 32 characters
+    for (const id of ids) expect(id).toMatch(/^[A-Za-z0-9_-]{32}$/);
+  });
+});
+
+describe('password reset tokens', () => {
+  beforeAll(async () => {
+    await signUp(sw, { email: 'reset@sessions.test' });
+    await signUp(sw, { email: 'bystander@sessions.test' });
+  });
+
+  it('works once: used again, even at the same moment, it is refused', async () => {
+    const token = await resetLink('reset@sessions.test');
+    const [one, two] = await Promise.all([
+      new Caller(sw.app).post('/api/auth/password-reset/confirm', { token, password: 'first of two secrets' }),
+      new Caller(sw.app).post('/api/auth/password-reset/confirm', { token, password: 'second of two secrets' }),
+    ]);
+    expect([one.status, two.status].sort()).toEqual([200, 410]);
+    const again = await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token, password: 'third try at this' });
+    expect(again.status).toBe(410);
+    const winner = one.status === 200 ? 'first of two secrets' : 'second of two secrets';
+    await signInAs(sw, 'reset@sessions.test', winner);
+    // back to the suite's password for the tests below
+    const back = await resetLink('reset@sessions.test');
+    expect((await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token: back, password: PASSWORD })).status).toBe(200);
+  });
+
+  it('lasts one hour by the clock: at 59 minutes it works, at 60 it is refused', async () => {
+    const early = await resetLink('reset@sessions.test');
+    const late = await resetLink('reset@sessions.test');
+    sw.clock.advance(59 * 60_000);
+    expect((await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token: early, password: PASSWORD })).status).toBe(200);
+    const lateAgain = await resetLink('reset@sessions.test');
+    sw.clock.advance(60 * 60_000);
+    const refused = await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token: lateAgain, password: 'too late for this one' });
+    expect(refused.status).toBe(410);
+    expect(refused.body.error.message).toMatch(/expired/);
+    // `late` died with the reset that used `early` (one reset ends the person's other links)
+    expect((await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token: late, password: 'too late for this one' })).status).toBe(410);
+    await signInAs(sw, 'reset@sessions.test');
+  });
+
+  it("a link changes only its own account's password, whoever is signed in when it is used", async () => {
+    const token = await resetLink('reset@sessions.test');
+    const bystander = await signInAs(sw, 'bystander@sessions.test');
+    const res = await bystander.post('/api/auth/password-reset/confirm', { token, password: 'only for the reset account' });
+    expect(res.status).toBe(200);
+    expect(res.body.user.email).toBe('reset@sessions.test');
+    await signInAs(sw, 'reset@sessions.test', 'only for the reset account');
+    await signInAs(sw, 'bystander@sessions.test');
+    await expect(signInAs(sw, 'bystander@sessions.test', 'only for the reset account')).rejects.toThrow(/401/);
+    const back = await resetLink('reset@sessions.test');
+    expect((await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token: back, password: PASSWORD })).status).toBe(200);
+  });
+
+  it('an invitation token is no reset token, and a reset token no invitation', async () => {
+    const owner = await signInAs(sw, 'bystander@sessions.test');
+    const studioId = (await owner.get('/api/auth/me')).body.memberships[0].studioId;
+    await owner.post(`/api/studios/${studioId}/invitations`, { email: 'reset@sessions.test', role: 'painter' });
+    const invitation = linkIn((await mailTo(sw, 'reset@sessions.test')).filter((m) => m.text.includes('/invite/')).at(-1)!.text, '/invite/');
+    expect((await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token: invitation, password: 'not through an invitation' })).status).toBe(410);
+    const reset = await resetLink('reset@sessions.test');
+    expect((await new Caller(sw.app).get(`/api/invitations/${reset}`)).status).toBe(404);
+    expect((await new Caller(sw.app).post(`/api/invitations/${reset}/accept`, { password: PASSWORD })).status).toBe(404);
+    await signInAs(sw, 'reset@sessions.test');
+  });
+
+  it("ends the person's other sessions on every device, and nobody else's", async () => {
+    const laptop = await signInAs(sw, 'reset@sessions.test');
+    const phone = await signInAs(sw, 'reset@sessions.test');
+    const other = await signInAs(sw, 'bystander@sessions.test');
+    const token = await resetLink('reset@sessions.test');
+    const here = new Caller(sw.app);
+    expect((await here.post('/api/auth/password-reset/confirm', { token, password: PASSWORD })).status).toBe(200);
+    expect((await laptop.get('/api/auth/me')).status).toBe(401);
+    expect((await phone.get('/api/auth/me')).status).toBe(401);
+    expect((await here.get('/api/auth/me')).body.user.email).toBe('reset@sessions.test');
+    expect((await other.get('/api/auth/me')).body.user.email).toBe('bystander@sessions.test');
+    // signing in again works as usual
+    expect((await (await signInAs(sw, 'reset@sessions.test')).get('/api/auth/me')).status).toBe(200);
+  });
+
+  it('tells the person by e-mail that the password was changed', async () => {
+    const token = await resetLink('reset@sessions.test');
+    const before = (await mailTo(sw, 'reset@sessions.test')).length;
+    expect((await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token, password: PASSWORD })).status).toBe(200);
+    const after = await mailTo(sw, 'reset@sessions.test');
+    expect(after).toHaveLength(before + 1);
+    expect(after.at(-1)!.subject).toBe('Your Sablework password was changed');
+    expect(after.at(-1)!.text).not.toContain(PASSWORD);
+  });
+});
+
+describe('sign-in throttling', () => {
+  beforeAll(async () => {
+    for (const who of ['pair', 'account', 'spray-victim', 'sprayer']) await signUp(sw, { email: `${who}@throttle.test` });
+  });
+  const login = (email: string, password: string, ip: string) => new Caller(sw.app).agent.get('/api/auth/csrf').set('X-Forwarded-For', ip).then(async (r) => {
+    const cookie = cookieOf(r)!;
+    return request(sw.app).post('/api/auth/login').set('Cookie', cookie).set('x-csrf-token', r.body.token).set('X-Forwarded-For', ip).send({ email, password });
+  });
+  const retryAfter = (res: { headers: Record<string, unknown> }) => Number(res.headers['retry-after']);
+
+  it(`per e-mail and address: ${THROTTLE_LIMITS.pair} wrong passwords, then 429 with Retry-After even for the right one; another address may still sign in`, async () => {
+    for (let i = 0; i < THROTTLE_LIMITS.pair; i++) expect((await login('pair@throttle.test', 'wrong password', '198.51.100.1')).status).toBe(401);
+    const blocked = await login('pair@throttle.test', PASSWORD, '198.51.100.1');
+    expect(blocked.status).toBe(429);
+    expect(retryAfter(blocked)).toBeGreaterThan(0);
+    expect(retryAfter(blocked)).toBeLessThanOrEqual(15 * 60);
+    expect((await login('pair@throttle.test', PASSWORD, '198.51.100.2')).status).toBe(200);
+    sw.clock.advance(5 * 60_000);
+    const later = await login('pair@throttle.test', PASSWORD, '198.51.100.1');
+    expect(later.status).toBe(429);
+    expect(retryAfter(later)).toBeLessThanOrEqual(retryAfter(blocked) - 5 * 60 + 1);
+    sw.clock.advance(10 * 60_000 + 1000);
+    expect((await login('pair@throttle.test', PASSWORD, '198.51.100.1')).status).toBe(200);
+  });
+
+  it(`per account: guesses from many addresses stop at ${THROTTLE_LIMITS.account} in 15 minutes (at most ${THROTTLE_LIMITS.account * 4} an hour, under ASVS 2.2.1's 100)`, async () => {
+    // two guesses from each of many addresses: none of them meets the per-address limits
+    for (let i = 0; i < THROTTLE_LIMITS.account; i++) expect((await login('account@throttle.test', 'wrong password', `203.0.113.${Math.floor(i / 2) + 1}`)).status).toBe(401);
+    const next = await login('account@throttle.test', 'wrong password', '203.0.113.200');
+    expect(next.status).toBe(429);
+    expect(retryAfter(next)).toBeGreaterThan(0);
+    expect((await login('account@throttle.test', PASSWORD, '203.0.113.201')).status).toBe(429);
+    // other accounts are not held up
+    expect((await login('pair@throttle.test', PASSWORD, '203.0.113.202')).status).toBe(200);
+    sw.clock.advance(15 * 60_000 + 1000);
+    expect((await login('account@throttle.test', PASSWORD, '203.0.113.201')).status).toBe(200);
+  });
+
+  it(`per address: one address trying many accounts stops after ${THROTTLE_LIMITS.address} failures, and signing in to its own account does not reset the count`, async () => {
+    const ip = '192.0.2.77';
+    for (let i = 0; i < THROTTLE_LIMITS.address; i++) {
+      // a different (unknown) account each time, so neither the pair nor the account limit is met
+      expect((await login(`guess-${i}@throttle.test`, 'wrong password', ip)).status).toBe(401);
+      if (i === 20) expect((await login('sprayer@throttle.test', PASSWORD, ip)).status).toBe(200);
+    }
+    const blocked = await login('spray-victim@throttle.test', 'wrong password', ip);
+    expect(blocked.status).toBe(429);
+    expect(retryAfter(blocked)).toBeGreaterThan(0);
+    expect((await login('spray-victim@throttle.test', PASSWORD, '192.0.2.78')).status).toBe(200);
+    sw.clock.advance(15 * 60_000 + 1000);
+    expect((await login('spray-victim@throttle.test', PASSWORD, ip)).status).toBe(200);
+  }, 120_000);
+});
+
+describe('passwords', () => {
+  const base = { name: 'Long Secret', studioName: 'Long Studio', currency: 'EUR', timezone: 'UTC' };
+
+  it('does not truncate: a password that differs only after the 72nd byte is refused', async () => {
+    const head = 'all the same for a good long while, '.repeat(3); // 108 bytes
+    const c = new Caller(sw.app);
+    expect((await c.post('/api/auth/signup', { ...base, email: 'long@passwords.test', password: `${head}then one ending` })).status).toBe(201);
+    expect((await new Caller(sw.app).post('/api/auth/login', { email: 'long@passwords.test', password: `${head}then another ending` })).status).toBe(401);
+    expect((await new Caller(sw.app).post('/api/auth/login', { email: 'long@passwords.test', password: `${head}then one ending` })).status).toBe(200);
+  });
+
+  it('accepts a 64-character password with spaces and non-Latin letters, and only that one', async () => {
+    const password = 'ねこ と いぬ が すき '.repeat(5).slice(0, 64);
+    expect([...password]).toHaveLength(64);
+    expect(Buffer.byteLength(password)).toBeGreaterThan(72);
+    expect((await new Caller(sw.app).post('/api/auth/signup', { ...base, email: 'kana@passwords.test', password })).status).toBe(201);
+    expect((await new Caller(sw.app).post('/api/auth/login', { email: 'kana@passwords.test', password })).status).toBe(200);
+    expect((await new Caller(sw.app).post('/api/auth/login', { email: 'kana@passwords.test', password: `${password.slice(0, 63)}x` })).status).toBe(401);
+  });
+});
