@@ -144,7 +144,8 @@ export async function createApp(config: Config) {
     log,
   });
 
-  const paymentsFake = config.stripeSecretKey ? null : await startPaymentsFake({ port: config.paymentsFakePort, clock: config.clock, log });
+  // STRIPE_WEBHOOK_SECRET without a key: the fake signs with it, so events signed before a restart still verify after it.
+  const paymentsFake = config.stripeSecretKey ? null : await startPaymentsFake({ port: config.paymentsFakePort, clock: config.clock, log, webhookSecret: config.stripeWebhookSecret });
   const payments = createPayments({
     secretKey: config.stripeSecretKey ?? paymentsFake!.secretKey,
     webhookSecret: config.stripeWebhookSecret ?? paymentsFake!.webhookSecret,
@@ -189,6 +190,9 @@ export async function createApp(config: Config) {
   const storage = localDiskStorage(path.join(config.dataDir, 'photos'));
   const notices = noticesService({ repo: noticesRepository(db), mailer, publicUrl: config.publicUrl });
   const photos = photosService({ db, repo: photosRepository(db), storage, limiter: createLimiter(2), notices, clock: config.clock });
+  // Before anything is uploaded: the temp files (swept as the store opened) and files without a row that a crash left.
+  const leftovers = await photos.sweepLeftovers();
+  if (storage.sweptTempFiles || leftovers) log.warn(`removed ${storage.sweptTempFiles} unfinished and ${leftovers} unreferenced photo files left by an interrupted run`);
   const comments = commentsService({ db, repo: commentsRepository(db), notices, clock: config.clock });
   const approvals = approvalsService({
     db,
