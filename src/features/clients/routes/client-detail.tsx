@@ -13,6 +13,7 @@ import { clientQueryOptions } from '../api/get-client';
 import { useUpdateClient } from '../api/update-client';
 import { ClientDetails } from '../components/client-details';
 import { ClientForm } from '../components/client-form';
+import { ClientPrivacyPanel } from '../components/client-privacy';
 import { PortalInvite } from '../components/portal-invite';
 import { BackToClients } from './client-new';
 
@@ -82,6 +83,11 @@ export function ClientDetailRoute() {
             <ClientDetails client={c} />
           )}
         </Card>
+        {canEdit && (
+          <Card title="Privacy">
+            <ClientPrivacyPanel studioId={studioId} client={c} timezone={timezone} />
+          </Card>
+        )}
       </div>
     </>
   );

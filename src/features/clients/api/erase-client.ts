@@ -1,0 +1,17 @@
+import { useMutation, useQueryClient } from '@tanstack/react-query';
+import type { EraseClientInput, EraseResult } from '../../../../shared/schemas/privacy';
+import { api } from '../../../lib/api-client';
+
+/** Erases the client's personal data; issued invoices stay under an anonymised placeholder. */
+export function eraseClient(studioId: number, clientId: number, body: EraseClientInput): Promise<EraseResult> {
+  return api<EraseResult>(`/api/studios/${studioId}/clients/${clientId}/erase`, { method: 'POST', body });
+}
+
+export function useEraseClient(studioId: number, clientId: number) {
+  const queryClient = useQueryClient();
+  return useMutation({
+    mutationFn: (body: EraseClientInput) => eraseClient(studioId, clientId, body),
+    // The name, the commissions, invoices and lists all change: refetch whatever shows them.
+    onSuccess: () => queryClient.invalidateQueries(),
+  });
+}
