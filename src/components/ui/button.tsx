@@ -29,18 +29,28 @@ export function buttonClasses(variant: ButtonVariant = 'primary', size: ButtonSi
 type ButtonProps = ComponentProps<'button'> & {
   variant?: ButtonVariant;
   size?: ButtonSize;
-  /** Shows a spinner and blocks a second click while the request runs. */
+  /**
+   * Shows a spinner and blocks a second click while the request runs. The button stays focusable
+   * (aria-disabled, not disabled), so a keyboard user who pressed it keeps their place on the page.
+   */
   loading?: boolean;
 };
 
-export function Button({ variant = 'primary', size = 'md', loading = false, disabled, className, children, type = 'button', ...rest }: ButtonProps) {
+export function Button({ variant = 'primary', size = 'md', loading = false, disabled, className, children, type = 'button', onClick, ...rest }: ButtonProps) {
+  const inactive = loading || rest['aria-disabled'] === true || rest['aria-disabled'] === 'true';
   return (
     <button
       type={type}
-      disabled={disabled || loading}
+      disabled={disabled}
+      {...rest}
+      aria-disabled={inactive || undefined}
       aria-busy={loading || undefined}
       className={buttonClasses(variant, size, className)}
-      {...rest}
+      onClick={(e) => {
+        // Also stops a form's submit, and Enter in a field (which clicks the form's submit button).
+        if (inactive) return e.preventDefault();
+        onClick?.(e);
+      }}
     >
       {loading && <Spinner label="Working…" />}
       {children}

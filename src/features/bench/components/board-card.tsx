@@ -59,7 +59,7 @@ export function BoardCardView({
             {card.quantity > 1 && <span className="figures font-normal whitespace-nowrap text-sable-600"> × {card.quantity}</span>}
           </h3>
           <p className="text-xs break-words">
-            <Link to={`../commissions/${card.commission.id}`} relative="path">
+            <Link to={`../commissions/${card.commission.id}`} relative="path" data-focus-key={`link-${card.figureId}`}>
               {card.commission.title}
             </Link>
           </p>
@@ -71,6 +71,7 @@ export function BoardCardView({
             {...attributes}
             {...listeners}
             aria-label={`Drag ${card.figureName} to ${nextName}`}
+            data-focus-key={`handle-${card.figureId}`}
             className="-mt-1 -mr-1 cursor-grab touch-none rounded-control p-1.5 text-sable-600 hover:bg-primer-100 active:cursor-grabbing"
           >
             <GripVertical aria-hidden="true" className="size-4" />
@@ -111,6 +112,7 @@ export function BoardCardView({
             className="w-full whitespace-normal"
             loading={advancing}
             onClick={onAdvance}
+            data-focus-key={`done-${card.figureId}`}
             aria-label={`Mark ${stage.name} done for ${card.figureName}${nextName ? ` and move it to ${nextName}` : ''}`}
           >
             <Check aria-hidden="true" className="size-4" />

@@ -1,4 +1,4 @@
-import { useMemo, useState, type ReactNode } from 'react';
+import { useEffect, useMemo, useRef, useState, type ReactNode } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import {
   DndContext,
@@ -91,7 +91,28 @@ export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Perso
     useSensor(KeyboardSensor, { coordinateGetter }),
   );
 
-  async function moveOn(card: BoardCard, nextName: string | null) {
+  // A moved card is drawn anew in its next column, so the control that had focus is gone. Focus follows the
+  // card: its handle after a drag, its "done" button after a press (once it is enabled again), else its link.
+  const follow = useRef<{ figureId: number; control: 'handle' | 'done' } | null>(null);
+  useEffect(() => {
+    const f = follow.current;
+    if (!f) return;
+    const lost = !document.activeElement || document.activeElement === document.body;
+    if (lost) {
+      const order = f.control === 'handle' ? ['handle', 'done', 'link'] : ['done', 'handle', 'link'];
+      for (const control of order) {
+        const el = document.querySelector<HTMLElement>(`[data-focus-key="${control}-${f.figureId}"]`);
+        if (!el) continue;
+        if (el.matches(':disabled')) return; // still saving: try again on the next render
+        el.focus();
+        break;
+      }
+    }
+    if (!advance.isPending) follow.current = null;
+  });
+
+  async function moveOn(card: BoardCard, nextName: string | null, control: 'handle' | 'done') {
+    follow.current = { figureId: card.figureId, control };
     try {
       await advance.mutateAsync(card.figureId);
       toast.show(nextName ? `${card.figureName}: ${card.stage?.name} done, now ${nextName}.` : `${card.figureName}: all stages done.`);
@@ -109,7 +130,7 @@ export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Perso
     setActive(null);
     if (!data || !e.over) return;
     const to = columns.findIndex((c) => colId(c.key) === e.over!.id);
-    if (to === data.columnIndex + 1) void moveOn(data.card, data.nextName);
+    if (to === data.columnIndex + 1) void moveOn(data.card, data.nextName, 'handle');
   }
 
   const announcements: Announcements = {
@@ -129,6 +150,15 @@ export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Perso
     onDragCancel: ({ active: a }) => `Moving ${(a.data.current as CardData).card.figureName} was cancelled; it stays where it was.`,
   };
 
+  // The date is typed part by part ("0002", "0020", "0203", "2030" on the way to a year): the field keeps
+  // what is typed and the filter only takes a whole, plausible date (or an empty field), so typing is not undone.
+  const [dueDraft, setDueDraft] = useState({ url: filter.dueBefore, value: filter.dueBefore ?? '' });
+  if (dueDraft.url !== filter.dueBefore) setDueDraft({ url: filter.dueBefore, value: filter.dueBefore ?? '' });
+  function typeDue(value: string) {
+    setDueDraft((d) => ({ ...d, value }));
+    if (value === '' || Number(value.slice(0, 4)) >= 2000) setFilter('due', value);
+  }
+
   function setFilter(key: string, value: string) {
     setParams((p) => {
       const next = new URLSearchParams(p);
@@ -147,8 +177,9 @@ export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Perso
         title="Bench"
         description="Booked figures by the stage they are at. Mark a stage done, or drag a card on to the next stage."
         actions={
-          role === 'painter' && !filter.painterId ? (
-            <Button variant="secondary" onClick={() => setFilter('painter', String(userId))}>
+          role === 'painter' ? (
+            // A toggle that stays in place, so keyboard focus is not lost when it is pressed.
+            <Button variant="secondary" aria-pressed={filter.painterId === userId} className="aria-pressed:border-verdigris-600 aria-pressed:bg-verdigris-100" onClick={() => setFilter('painter', filter.painterId === userId ? '' : String(userId))}>
               Only my figures
             </Button>
           ) : undefined
@@ -185,7 +216,7 @@ export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Perso
           <label htmlFor="bench-due" className="mb-1 block text-sm font-medium">
             Due on or before
           </label>
-          <input id="bench-due" type="date" value={filter.dueBefore ?? ''} onChange={(e) => setFilter('due', e.target.value)} className="min-h-10 w-full rounded-control border border-sable-600 bg-white px-3 text-base" />
+          <input id="bench-due" type="date" value={dueDraft.value} onChange={(e) => typeDue(e.target.value)} className="min-h-10 w-full rounded-control border border-sable-600 bg-white px-3 text-base" />
         </div>
         <p className="text-xs text-sable-600 sm:col-span-3" aria-live="polite">
           {board.data ? `${total} ${total === 1 ? 'figure' : 'figures'} on the bench${filtered ? ' with these filters' : ''}.` : ''}
@@ -226,7 +257,7 @@ export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Perso
                       nextName={col.key === 'done' ? null : next}
                       timezone={timezone}
                       advancing={advance.isPending && advance.variables === card.figureId}
-                      onAdvance={() => void moveOn(card, next)}
+                      onAdvance={() => void moveOn(card, next, 'done')}
                       tools={card.stage ? cardTools?.(card) : undefined}
                     />
                   ))}

@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { CalendarPlus, Copy } from 'lucide-react';
 import type { CalendarFeedView } from '../../../../shared/schemas/schedule';
 import { Button } from '../../../components/ui/button';
@@ -23,6 +23,22 @@ export function CalendarFeedCard({ studioId, timezone, role }: { studioId: numbe
   const toast = useToast();
   const [fresh, setFresh] = useState<CalendarFeedView | null>(null);
   const [confirm, setConfirm] = useState<null | 'rotate' | 'off'>(null);
+  // Keyboard focus after the controls change under it: to the new address, or to "Make my calendar address".
+  const addressRef = useRef<HTMLInputElement>(null);
+  const makeRef = useRef<HTMLButtonElement>(null);
+  const focusMake = useRef(false);
+  useEffect(() => {
+    if (fresh?.url) addressRef.current?.focus();
+  }, [fresh?.url]);
+  const active = feed.data?.active;
+  const dialogOpen = confirm !== null;
+  useEffect(() => {
+    // Once the feed is off and the dialog has closed (the page behind a modal cannot take focus).
+    if (active === false && !dialogOpen && focusMake.current) {
+      focusMake.current = false;
+      makeRef.current?.focus();
+    }
+  }, [active, dialogOpen]);
 
   const make = () =>
     create.mutate(undefined, {
@@ -31,14 +47,19 @@ export function CalendarFeedCard({ studioId, timezone, role }: { studioId: numbe
         setConfirm(null);
       },
     });
-  const off = () =>
+  const off = () => {
+    focusMake.current = true;
     remove.mutate(undefined, {
+      onError: () => {
+        focusMake.current = false;
+      },
       onSuccess: () => {
         setFresh(null);
         setConfirm(null);
         toast.show('Your calendar address is turned off. Calendar apps that used it get nothing more.');
       },
     });
+  };
   async function copy(url: string) {
     try {
       await navigator.clipboard.writeText(url);
@@ -63,7 +84,7 @@ export function CalendarFeedCard({ studioId, timezone, role }: { studioId: numbe
                 Your secret calendar address
               </label>
               <div className="flex flex-wrap gap-2">
-                <input id="feed-url" readOnly value={fresh.url} onFocus={(e) => e.currentTarget.select()} className="min-h-10 min-w-0 flex-1 rounded-control border border-sable-600 bg-white px-3 font-mono text-sm" />
+                <input ref={addressRef} id="feed-url" readOnly value={fresh.url} onFocus={(e) => e.currentTarget.select()} className="min-h-10 min-w-0 flex-1 rounded-control border border-sable-600 bg-white px-3 font-mono text-sm" />
                 <Button variant="secondary" onClick={() => copy(fresh.url!)}>
                   <Copy aria-hidden="true" className="size-4" />
                   Copy
@@ -96,7 +117,7 @@ export function CalendarFeedCard({ studioId, timezone, role }: { studioId: numbe
                 </Button>
               </>
             ) : (
-              <Button onClick={make} loading={create.isPending}>
+              <Button ref={makeRef} onClick={make} loading={create.isPending}>
                 <CalendarPlus aria-hidden="true" className="size-4" />
                 Make my calendar address
               </Button>

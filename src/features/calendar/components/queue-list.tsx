@@ -1,4 +1,4 @@
-import { useState } from 'react';
+import { useEffect, useRef, useState } from 'react';
 import { Link } from 'react-router-dom';
 import { ArrowDown, ArrowUp, GripVertical } from 'lucide-react';
 import { closestCenter, DndContext, KeyboardSensor, PointerSensor, useSensor, useSensors, type Announcements, type DragEndEvent } from '@dnd-kit/core';
@@ -60,6 +60,7 @@ function QueueRow({ c, index, count, studioId, canMove, busy, onMove }: RowProps
           {...attributes}
           {...listeners}
           aria-label={`Drag ${c.title} to another place in the queue`}
+          data-focus-key={`handle-${c.id}`}
           className="mt-0.5 cursor-grab touch-none rounded-control p-1 text-sable-600 hover:bg-primer-100 active:cursor-grabbing"
         >
           <GripVertical aria-hidden="true" className="size-5" />
@@ -79,11 +80,12 @@ function QueueRow({ c, index, count, studioId, canMove, busy, onMove }: RowProps
       </div>
       {canMove && (
         <div className="flex shrink-0 flex-col gap-1 sm:flex-row">
-          <Button variant="secondary" size="sm" disabled={busy || index === 0} onClick={() => onMove(index, index - 1)} aria-label={`Move ${c.title} up the queue`}>
+          {/* aria-disabled rather than disabled, so the button that was pressed keeps focus while the move saves. */}
+          <Button variant="secondary" size="sm" aria-disabled={busy || index === 0} onClick={() => !busy && index > 0 && onMove(index, index - 1)} aria-label={`Move ${c.title} up the queue`} data-focus-key={`up-${c.id}`}>
             <ArrowUp aria-hidden="true" className="size-4" />
             <span className="hidden sm:inline">Up</span>
           </Button>
-          <Button variant="secondary" size="sm" disabled={busy || index === count - 1} onClick={() => onMove(index, index + 1)} aria-label={`Move ${c.title} down the queue`}>
+          <Button variant="secondary" size="sm" aria-disabled={busy || index === count - 1} onClick={() => !busy && index < count - 1 && onMove(index, index + 1)} aria-label={`Move ${c.title} down the queue`} data-focus-key={`down-${c.id}`}>
             <ArrowDown aria-hidden="true" className="size-4" />
             <span className="hidden sm:inline">Down</span>
           </Button>
@@ -116,8 +118,22 @@ export function QueueList({ studioId, commissions, canMove }: { studioId: number
     onDragCancel: ({ active }) => `Move cancelled; ${title(active.id)} stays where it was.`,
   };
 
-  function move(from: number, to: number) {
+  // A row that moves is taken out of the page and put back, which drops keyboard focus: put it back on the
+  // control that was used (or the row's handle), unless the person has moved on.
+  const follow = useRef<{ id: number; control: 'up' | 'down' | 'handle' } | null>(null);
+  useEffect(() => {
+    const f = follow.current;
+    if (!f) return;
+    if (!document.activeElement || document.activeElement === document.body) {
+      const el = document.querySelector<HTMLElement>(`[data-focus-key="${f.control}-${f.id}"]`) ?? document.querySelector<HTMLElement>(`[data-focus-key="handle-${f.id}"]`);
+      el?.focus();
+    }
+    if (!reorder.isPending) follow.current = null;
+  });
+
+  function move(from: number, to: number, control: 'up' | 'down' | 'handle' = to < from ? 'up' : 'down') {
     if (to < 0 || to >= order.length || from === to) return;
+    follow.current = { id: order[from].id, control };
     const next = arrayMove(order, from, to);
     setPending(next.map((c) => c.id));
     reorder.mutate(
@@ -132,7 +148,7 @@ export function QueueList({ studioId, commissions, canMove }: { studioId: number
 
   function onDragEnd(e: DragEndEvent) {
     if (!e.over || e.active.id === e.over.id) return;
-    move(order.findIndex((c) => c.id === e.active.id), order.findIndex((c) => c.id === e.over!.id));
+    move(order.findIndex((c) => c.id === e.active.id), order.findIndex((c) => c.id === e.over!.id), 'handle');
   }
 
   return (

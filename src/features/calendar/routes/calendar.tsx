@@ -83,7 +83,8 @@ export function CalendarRoute() {
                   <ChevronLeft aria-hidden="true" className="size-4" />
                   Earlier
                 </Button>
-                <Button variant="secondary" size="sm" onClick={() => set({ from: null })} disabled={!from}>
+                {/* aria-disabled, not disabled: pressing it must not drop keyboard focus to the page. */}
+                <Button variant="secondary" size="sm" onClick={() => from && set({ from: null })} aria-disabled={!from}>
                   This week
                 </Button>
                 <Button variant="secondary" size="sm" onClick={() => shift(Math.max(1, Math.floor(weeks / 2)))}>

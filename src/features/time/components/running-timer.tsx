@@ -15,7 +15,7 @@ export function RunningTimer({ studioId }: { studioId: number }) {
   const elapsed = useElapsed(running?.startedAt);
   if (!running) return null;
   return (
-    <div role="status" aria-label="Running timer" className="flex items-center gap-2 rounded-control border border-verdigris-600 bg-verdigris-100 py-1 pr-1 pl-2 text-sm">
+    <div role="group" aria-label="Running timer" className="flex items-center gap-2 rounded-control border border-verdigris-600 bg-verdigris-100 py-1 pr-1 pl-2 text-sm">
       <Timer aria-hidden="true" className="size-4 shrink-0 text-verdigris-600" />
       <Link
         to={`/studio/${studioId}/commissions/${running.commission.id}`}
