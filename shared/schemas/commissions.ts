@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import { commissionStatuses, priorities, stageStatuses, type CommissionStatus, type Priority, type Progress, type StageStatus } from '../commission-lifecycle';
 import { hazardKeys, type HazardKey } from '../hazards';
-import { optionalText, pageQuery } from './common';
+import { id, optionalText, pageQuery } from './common';
 
 export const sizeClasses = ['25', '28', '32', '40', '50', '60', '80', '100', '120', '160', 'large'] as const;
 export type SizeClass = (typeof sizeClasses)[number];
@@ -156,7 +156,7 @@ export const commissionListQuery = pageQuery.extend({
     .optional()
     .transform((s) => (s ? s.split(',').map((x) => x.trim()).filter(Boolean) : undefined))
     .pipe(z.array(z.enum(commissionStatuses, { error: 'Unknown status.' })).optional()),
-  clientId: z.coerce.number().int().positive().optional(),
+  clientId: id.optional(),
 });
 export type CommissionListQuery = z.infer<typeof commissionListQuery>;
 
@@ -183,8 +183,8 @@ export const updateTimeInput = z.object({
 export type UpdateTimeInput = z.infer<typeof updateTimeInput>;
 
 export const boardQuery = z.object({
-  painterId: z.coerce.number().int().positive().optional(),
-  commissionId: z.coerce.number().int().positive().optional(),
+  painterId: id.optional(),
+  commissionId: id.optional(),
   dueBefore: dateOnly.optional(),
 });
 export type BoardQuery = z.infer<typeof boardQuery>;

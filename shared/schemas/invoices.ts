@@ -72,8 +72,8 @@ export type RefundInput = z.infer<typeof refundInput>;
 
 export const invoiceListQuery = pageQuery.extend({
   status: z.enum(invoiceStatuses, { error: 'Unknown status.' }).optional(),
-  clientId: z.coerce.number().int().positive().optional(),
-  commissionId: z.coerce.number().int().positive().optional(),
+  clientId: id.optional(),
+  commissionId: id.optional(),
   kind: z.enum(invoiceKinds, { error: 'Unknown kind.' }).optional(),
 });
 export type InvoiceListQuery = z.infer<typeof invoiceListQuery>;

@@ -78,7 +78,7 @@ export const declineQuoteInput = z.object({
 export type DeclineQuoteInput = z.infer<typeof declineQuoteInput>;
 
 export const quoteListQuery = pageQuery.extend({
-  commissionId: z.coerce.number().int().positive().optional(),
+  commissionId: id.optional(),
   status: z.enum(quoteStatuses, { error: 'Unknown status.' }).optional(),
 });
 export type QuoteListQuery = z.infer<typeof quoteListQuery>;

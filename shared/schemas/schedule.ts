@@ -2,7 +2,7 @@
 // delivery if booked today", the timeline and the calendar feed. Requests (zod) and responses.
 import { z } from 'zod';
 import type { CommissionStatus } from '../commission-lifecycle';
-import { timeZone } from './common';
+import { id, timeZone } from './common';
 import { timeRangeInput, weeklyHoursInput } from './capacity';
 
 const localDate = z.iso.date({ error: 'Use a date such as 2026-05-31.' });
@@ -56,10 +56,10 @@ export type QueueOrderInput = z.infer<typeof queueOrderInput>;
  */
 export const earliestDeliveryQuery = z
   .object({
-    commissionId: z.coerce.number().int().positive().optional(),
+    commissionId: id.optional(),
     hours: z.coerce.number({ error: 'Enter hours as a number.' }).min(0.05, 'Use at least 0.05 hours.').max(10_000, 'Use at most 10000 hours.').optional(),
     waitHours: z.coerce.number().min(0).max(720, 'Use at most 720 hours.').optional(),
-    painterId: z.coerce.number().int().positive().optional(),
+    painterId: id.optional(),
   })
   .refine((q) => q.commissionId !== undefined || q.hours !== undefined, { path: ['hours'], message: 'Give a commission or the hours of work.' });
 export type EarliestDeliveryQuery = z.infer<typeof earliestDeliveryQuery>;
