@@ -11,6 +11,8 @@ export default defineConfig({
           name: 'api',
           include: ['tests/api/**/*.test.ts'],
           environment: 'node',
+          // With DATABASE_URL set, migrates one PostgreSQL template database for the run's test apps.
+          globalSetup: ['tests/support/pg-template.ts'],
           testTimeout: 20_000,
           hookTimeout: 30_000,
         },

@@ -1,4 +1,5 @@
 import fs from 'node:fs';
+import { createRequire } from 'node:module';
 import path from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import knexFactory, { type Knex } from 'knex';
@@ -18,9 +19,36 @@ export function ensureWritableDir(dir: string) {
   }
 }
 
+type TypeParser = (value: string) => unknown;
+const pgTypes = (createRequire(import.meta.url)('pg') as { types: { getTypeParser(oid: number, format?: string): TypeParser } }).types;
+
+/** PostgreSQL type ids whose text we read as JavaScript numbers. */
+const INT8 = 20; // bigint: count(*), sum(integer), bigInteger columns
+const NUMERIC = 1700; // numeric: sum(bigint), avg()
+
+/**
+ * node-postgres hands bigint and numeric back as strings (they may not fit a double); SQLite hands back
+ * numbers. Counts, sums of minor units and ids are far below 2^53, so read them as numbers on PostgreSQL
+ * too, and the code sees one type whatever the database. A value that would lose precision stays a string.
+ */
+function parseNumber(text: string): number | string {
+  const v = Number(text);
+  return Number.isFinite(v) && (!Number.isInteger(v) || Number.isSafeInteger(v)) ? v : text;
+}
+const pgTypeParsers = {
+  getTypeParser(oid: number, format?: string): TypeParser {
+    if ((oid === INT8 || oid === NUMERIC) && format !== 'binary') return parseNumber;
+    return pgTypes.getTypeParser(oid, format);
+  },
+};
+
 export function openDb(opts: { dataDir: string; databaseUrl?: string }): Db {
   if (opts.databaseUrl) {
-    return knexFactory({ client: 'pg', connection: opts.databaseUrl, pool: { min: 0, max: 10 } });
+    return knexFactory({
+      client: 'pg',
+      connection: { connectionString: opts.databaseUrl, types: pgTypeParsers },
+      pool: { min: 0, max: 10 },
+    });
   }
   ensureWritableDir(opts.dataDir);
   return knexFactory({
@@ -63,6 +91,16 @@ export async function migrate(db: Db) {
 
 export async function rollbackAll(db: Db) {
   await db.migrate.rollback({ migrationSource }, true);
+}
+
+/**
+ * True when a write broke a unique index or primary key: better-sqlite3 reports SQLITE_CONSTRAINT_UNIQUE
+ * (or _PRIMARYKEY), PostgreSQL SQLSTATE 23505. On PostgreSQL the failed statement also ends the
+ * transaction it ran in, so handle it outside the transaction, never carry on inside it.
+ */
+export function isUniqueViolation(err: unknown): boolean {
+  const code = (err as { code?: unknown } | null)?.code;
+  return code === '23505' || code === 'SQLITE_CONSTRAINT_UNIQUE' || code === 'SQLITE_CONSTRAINT_PRIMARYKEY';
 }
 
 /** Runs fn in a transaction; on SQLite this is one connection, so keep bodies short and free of network I/O. */

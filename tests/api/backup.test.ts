@@ -9,7 +9,8 @@ import { signInAs, signUp, startTestApp } from '../support/app';
 
 describe('backup and restore', () => {
   it('an online backup taken while the app runs restores into a working app with the same data', async () => {
-    const sw = await startTestApp();
+    // The backup copies the SQLite file in DATA_DIR, so this stays on SQLite when DATABASE_URL is set.
+    const sw = await startTestApp({ sqlite: true });
     const owner = await signUp(sw, { email: 'backup-owner@example.test', studioName: 'Backed Up' });
     await owner.caller.post(`/api/studios/${owner.studioId}/clients`, { name: 'Kept Client', email: 'kept@example.test' });
     const dest = fs.mkdtempSync(path.join(os.tmpdir(), 'sablework-backup-'));
@@ -18,7 +19,7 @@ describe('backup and restore', () => {
     await owner.caller.post(`/api/studios/${owner.studioId}/clients`, { name: 'Later Client' });
     await sw.stop();
 
-    const restored = await startTestApp({ dataDir: folder });
+    const restored = await startTestApp({ dataDir: folder, sqlite: true });
     const c = await signInAs(restored, 'backup-owner@example.test');
     const list = await c.get(`/api/studios/${owner.studioId}/clients`).expect(200);
     expect(list.body.items.map((x: { name: string }) => x.name)).toEqual(['Kept Client']);

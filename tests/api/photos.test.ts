@@ -2,6 +2,7 @@ import exifReader from 'exif-reader';
 import sharp from 'sharp';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, twoStudios, type TestApp } from '../support/app';
+import { failInsertsInto } from '../support/db-faults';
 import { images, insertCommission, insertFigure, photoFiles, upload, userId } from '../support/fixtures';
 
 let sw: TestApp;
@@ -173,12 +174,12 @@ describe('photo upload', () => {
     const filesBefore = photoFiles(sw);
     const rowsBefore = (await sw.db('photos').count({ n: '*' }).first())!.n;
     // Test-only fault: the insert fails after every file has been written under its temporary name.
-    await sw.db.raw("CREATE TRIGGER fail_photo_insert BEFORE INSERT ON photos BEGIN SELECT RAISE(ABORT, 'disk on fire'); END");
+    const restore = await failInsertsInto(sw.db, 'photos', 'disk on fire');
     try {
       const res = await upload(s.a.owner, url, [{ data: await images.twoTone(500, 400), name: 'a.jpg' }, { data: await images.twoTone(300, 300), name: 'b.jpg' }]);
       expect(res.status).toBe(500);
     } finally {
-      await sw.db.raw('DROP TRIGGER fail_photo_insert');
+      await restore();
     }
     expect((await sw.db('photos').count({ n: '*' }).first())!.n).toBe(rowsBefore);
     expect(photoFiles(sw)).toEqual(filesBefore);

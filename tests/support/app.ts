@@ -5,22 +5,30 @@ import path from 'node:path';
 import request from 'supertest';
 import type { Express } from 'express';
 import knexFactory from 'knex';
+import { inject } from 'vitest';
 import { createApp, type SableworkApp } from '../../server/app';
 import { loadConfig, type Config } from '../../server/config';
 import { manualClock } from '../../server/lib/clock';
 
 export type TestApp = SableworkApp & { clock: ReturnType<typeof manualClock>; dataDir: string; stop(): Promise<void> };
 
+type OwnDatabase = { url: string; drop(): Promise<void> };
+
 /**
  * With DATABASE_URL set (a PostgreSQL server), each test app gets a database of its own, created from
  * that URL's server and dropped when the app stops; without it, SQLite in the temporary DATA_DIR.
+ * The databases are copies of one template migrated once per run (tests/support/pg-template.ts), so an
+ * app starts without running every migration again. Commits skip the wait for the disk
+ * (synchronous_commit off, for these throwaway databases only).
  */
-async function ownPostgresDatabase(): Promise<{ url: string; drop(): Promise<void> } | null> {
+async function ownPostgresDatabase(): Promise<OwnDatabase | null> {
   const base = process.env.DATABASE_URL;
   if (!base) return null;
   const name = `sablework_test_${process.pid}_${crypto.randomBytes(4).toString('hex')}`;
+  const template = inject('pgTemplate');
   const admin = knexFactory({ client: 'pg', connection: base, pool: { min: 0, max: 1 } });
-  await admin.raw(`create database ${name}`);
+  await admin.raw(template ? `create database ${name} template ${template}` : `create database ${name}`);
+  await admin.raw(`alter database ${name} set synchronous_commit = off`);
   const url = new URL(base);
   url.pathname = `/${name}`;
   return {
@@ -32,22 +40,42 @@ async function ownPostgresDatabase(): Promise<{ url: string; drop(): Promise<voi
   };
 }
 
-/** A real app on a fresh temporary DATA_DIR with a clock the test moves. */
-export async function startTestApp(overrides: Partial<Config> & { dataDir?: string } = {}): Promise<TestApp> {
+/**
+ * The PostgreSQL database of a DATA_DIR: an app started again on the same DATA_DIR (a restart after
+ * close()) finds the data the first one left, as it would in the SQLite file.
+ */
+const databaseOfDataDir = new Map<string, OwnDatabase>();
+
+/**
+ * A real app on a fresh temporary DATA_DIR with a clock the test moves. `sqlite: true` keeps the app on
+ * the SQLite file in DATA_DIR even when DATABASE_URL is set (for tests of that file itself, like backups).
+ */
+export async function startTestApp(options: Partial<Config> & { dataDir?: string; sqlite?: boolean } = {}): Promise<TestApp> {
+  const { sqlite, ...overrides } = options;
   const dataDir = overrides.dataDir ?? fs.mkdtempSync(path.join(os.tmpdir(), 'sablework-test-'));
   const clock = manualClock();
-  const pg = overrides.databaseUrl ? null : await ownPostgresDatabase();
+  const pg = overrides.databaseUrl || sqlite ? null : (databaseOfDataDir.get(dataDir) ?? (await ownPostgresDatabase()));
+  if (pg) databaseOfDataDir.set(dataDir, pg);
   const config = loadConfig(
     { DATA_DIR: dataDir },
     { clock, databaseUrl: pg?.url, logLevel: 'silent', runJobs: false, serveClient: false, demo: false, bcryptRounds: 4, publicUrl: 'http://sablework.test', ...overrides },
   );
-  const sw = await createApp(config);
+  const sw = await createApp(config).catch(async (err: unknown) => {
+    if (pg) {
+      databaseOfDataDir.delete(dataDir);
+      await pg.drop();
+    }
+    throw err;
+  });
   return Object.assign(sw, {
     clock,
     dataDir,
     async stop() {
       await sw.close();
-      await pg?.drop();
+      if (pg) {
+        databaseOfDataDir.delete(dataDir);
+        await pg.drop();
+      }
       if (!overrides.dataDir) fs.rmSync(dataDir, { recursive: true, force: true });
     },
   });

@@ -238,6 +238,12 @@ export function invoicesRepository(db: Db) {
         .first()
         .then((r) => (r ? ({ ...r, amount: n(r.amount) } as CheckoutRow) : undefined)),
     updateCheckout: (trx: Db, id: number, patch: Record<string, unknown>) => trx('checkouts').where({ id }).update(patch),
+    /**
+     * Marks a checkout paid unless it is paid already; false when it was. One conditional update: on PostgreSQL a
+     * second event for the same checkout at the same time waits for the first's row, then finds it paid.
+     */
+    claimCheckoutPaid: (trx: Db, id: number, at: string) =>
+      trx('checkouts').where({ id }).whereNot('status', 'paid').update({ status: 'paid', completed_at: at }).then((count) => Number(count) === 1),
 
     /** Verified events that did not match a checkout, per invoice (for the owner). */
     async issues(studioId: number, invoiceIds?: number[]): Promise<IssueRow[]> {
@@ -272,12 +278,14 @@ export function invoicesRepository(db: Db) {
       const byId = new Map(sent.map((s) => [s.invoice_id as number, { count: n(s.c), last: String(s.last) }]));
       return rows.map((r) => ({ id: r.id as number, studioId: r.studio_id as number, dueDate: String(r.due_date), timezone: String(r.timezone), sent: byId.get(r.id)?.count ?? 0, lastSentAt: byId.get(r.id)?.last ?? null }));
     },
-    /** Claims reminder `number` of an invoice; false when it was claimed already (by another run). */
+    /**
+     * Claims reminder `number` of an invoice; false when it was claimed already (by another run). One
+     * insert that does nothing on the key (invoice, number): on PostgreSQL a second run at the same time
+     * waits for the first's row and then inserts nothing, where a look-then-insert would race.
+     */
     async claimReminder(trx: Db, invoiceId: number, number: number, at: string) {
-      const done = await trx('invoice_reminders').where({ invoice_id: invoiceId, number }).first('invoice_id');
-      if (done) return false;
-      await trx('invoice_reminders').insert({ invoice_id: invoiceId, number, sent_at: at });
-      return true;
+      const rows = await trx('invoice_reminders').insert({ invoice_id: invoiceId, number, sent_at: at }).onConflict(['invoice_id', 'number']).ignore().returning('invoice_id');
+      return rows.length === 1;
     },
   };
 }

@@ -1,6 +1,6 @@
 import { checkoutFromEvent, WebhookSignatureError, type Payments } from '../../lib/payments/index';
 import { iso, type Clock } from '../../lib/clock';
-import type { Db } from '../../lib/db';
+import { isUniqueViolation, type Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
 import type { InvoicesService } from '../invoices/invoices.service';
 import type { PaymentEventsRepository } from './payments-webhook.repository';
@@ -20,6 +20,8 @@ export function paymentsWebhookService(deps: { db: Db; repo: PaymentEventsReposi
         if (err instanceof WebhookSignatureError) throw errors.invalid('The payment event could not be verified.');
         throw err;
       }
+      // The same event delivered twice at once (to two instances): the second insert of its id breaks the
+      // key, its transaction is undone, and it answers as a duplicate.
       const outcome = await db.transaction(async (trx) => {
         if (await repo.exists(event.id, trx)) return 'duplicate';
         let result: { outcome: 'paid' | 'flagged' | 'ignored'; reason: string | null; studioId: number | null; invoiceId: number | null } = { outcome: 'ignored', reason: null, studioId: null, invoiceId: null };
@@ -37,6 +39,9 @@ export function paymentsWebhookService(deps: { db: Db; repo: PaymentEventsReposi
           received_at: iso(clock.now()),
         });
         return result.outcome;
+      }).catch(async (err: unknown) => {
+        if (isUniqueViolation(err) && (await repo.exists(event.id))) return 'duplicate' as const;
+        throw err;
       });
       invoices.kick();
       return { received: true, outcome };
