@@ -635,7 +635,8 @@ export function invoicesService(deps: InvoiceDeps) {
         if (inv) await mailOwners(trx, row.studio_id, inv.id, 'invoice.payment-flagged', `A payment for invoice ${inv.number} needs a look`, [reason]);
         return { outcome: 'flagged', reason, studioId: row.studio_id, invoiceId: row.invoice_id };
       }
-      await repo.updateCheckout(trx, row.id, { status: 'paid', completed_at: now() });
+      // checked again as it is claimed: another event for this checkout may have paid it meanwhile
+      if (!(await repo.claimCheckoutPaid(trx, row.id, now()))) return { outcome: 'ignored', reason: 'This checkout was recorded as paid already.', studioId: row.studio_id, invoiceId: row.invoice_id };
       await recordPayment(trx, by, inv, { method: 'card', amount: row.amount, receivedAt: now(), reference: info.paymentIntentId, checkoutId: row.id, paymentIntentId: info.paymentIntentId });
       const amount = formatMoney(row.amount, row.currency);
       await mailOwners(trx, row.studio_id, inv.id, 'invoice.payment-received', `Payment received: ${amount} for invoice ${inv.number}`, [`${inv.client_name} paid ${amount} by card for invoice ${inv.number} (“${inv.commission_title}”).`]);
