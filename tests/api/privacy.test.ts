@@ -221,6 +221,8 @@ describe('export', () => {
     expect(data.account).toMatchObject({ email: EMAIL, name: NAME });
     const text = zip.readAsText('data.json');
     expect(text).not.toMatch(/passwordHash|password_hash|tokenHash|storageKey/);
+    // no sign-in or invitation link leaves in the ZIP (mail bodies are left out)
+    expect(text).not.toMatch(/\/(invite|reset-password|reset)\/[A-Za-z0-9_-]{20,}/);
     expect((data.commissions as { id: number }[]).map((c) => c.id).sort()).toEqual([kept, open].sort());
 
     // Generic check against the live schema: every row of every table that points at the client, one of

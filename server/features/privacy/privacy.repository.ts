@@ -70,14 +70,19 @@ export function privacyRepository(db: Db) {
         }),
     calendar_feeds: (t, s) => (s.userId ? t('calendar_feeds').where({ studio_id: s.studioId, user_id: s.userId }) : nothing(t, 'calendar_feeds')),
     password_resets: (t, s) => (s.userId ? t('password_resets').where('user_id', s.userId) : nothing(t, 'password_resets')),
-    // The throttling key is "<e-mail>|<address>".
+    // Throttling keys carry the e-mail address beside other parts ("account:<e-mail>", "<e-mail>|<address>").
     login_failures: (t, s) =>
-      s.emails.length ? t('login_failures').where((w) => s.emails.forEach((e) => w.orWhereRaw(`?? like ? escape '\\'`, ['key', `${likeEscape(e)}|%`]))) : nothing(t, 'login_failures'),
+      s.emails.length
+        ? t('login_failures').where((w) => {
+            for (const e of s.emails) {
+              w.orWhere('key', e);
+              for (const pattern of [`${likeEscape(e)}|%`, `%:${likeEscape(e)}`, `%:${likeEscape(e)}|%`]) w.orWhereRaw(`?? like ? escape '\\'`, ['key', pattern]);
+            }
+          })
+        : nothing(t, 'login_failures'),
     sessions: (t) => nothing(t, 'sessions'),
-    outbox: (t, s) =>
-      t('outbox')
-        .where((w) => w.where('studio_id', s.studioId).orWhereNull('studio_id'))
-        .whereIn('to', s.emails),
+    // The studio's mails to the client; the account's own mails (sign-in links) are not the studio's to export.
+    outbox: (t, s) => t('outbox').where('studio_id', s.studioId).whereIn('to', s.emails),
     commissions: (t, s) => t('commissions').where({ studio_id: s.studioId, client_id: s.clientId }),
     figures: byCommission('figures'),
     stages: byCommission('stages'),
@@ -230,11 +235,8 @@ export function privacyRepository(db: Db) {
     membershipRole: async (trx: Db, s: Scope) =>
       s.userId ? (((await trx('memberships').where({ studio_id: s.studioId, user_id: s.userId }).first('role'))?.role as string | undefined) ?? null) : null,
     /** Mails to the client's addresses: the studio's, and the account's own (sign-in mails) when the account goes too. */
-    deleteMailsTo: (trx: Db, s: Scope, withAccountMail: boolean) => {
-      const q = scopes.outbox(trx, s);
-      if (!withAccountMail) q.where('studio_id', s.studioId);
-      return q.delete();
-    },
+    deleteMailsTo: async (trx: Db, s: Scope, withAccountMail: boolean) =>
+      (await scopes.outbox(trx, s).delete()) + (withAccountMail ? await trx('outbox').whereNull('studio_id').whereIn('to', s.emails).delete() : 0),
     membershipsElsewhere: async (trx: Db, s: Scope) =>
       s.userId ? Number((await trx('memberships').where('user_id', s.userId).whereNot('studio_id', s.studioId).count({ n: '*' }).first())?.n ?? 0) : 0,
     /** Time entries are the one reference to a user without ON DELETE (a person who once logged time). */

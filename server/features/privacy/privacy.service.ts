@@ -51,7 +51,8 @@ data.json
   password). The lists hold their commissions with figures, stages and logged hours, comments,
   approvals, scheme entries and the recipes and paints they use, quotes, invoices and credit notes
   with payments and refunds, shipments, models received, enquiries sent from their e-mail
-  addresses, invitations, e-mails sent to them, and the activity log of their commissions.
+  addresses, invitations, the e-mails the studio sent them (subject and date), and the activity
+  log of their commissions.
   Records point at each other by id: a figure's "commissionId" is the "id" of its commission.
   Amounts are whole minor units of the currency (cents for EUR): 12345 means 123.45.
   "people" names the studio members the records mention.

@@ -27,7 +27,8 @@ export const clientTables = {
   password_resets: { export: { skip: 'one-time sign-in secrets, not records about the client' }, erase: 'deleted with the account' },
   login_failures: { export: { skip: 'short-lived throttling log of failed sign-ins' }, erase: "rows keyed by the client's e-mail addresses are deleted" },
   sessions: { export: { skip: 'sign-in cookies of the browser, not records' }, erase: "the account's sessions are ended when the account goes" },
-  outbox: { export: 'rows', omit: ['html', 'last_error'], erase: "mails to the client's addresses deleted; the studio's other mails have the name and addresses replaced" },
+  // Only the envelope: mail bodies can carry sign-in and invitation links, which must not leave in a ZIP.
+  outbox: { export: 'rows', omit: ['text', 'html', 'last_error'], erase: "the studio's mails to the client's addresses deleted (and the account's own when it goes); the studio's other mails have the name and addresses replaced" },
   commissions: { export: 'rows', erase: 'deleted, unless an issued invoice points at it: then kept with the brief, scheme notes and cancel reason cleared and the name taken out of the title' },
   figures: { export: 'rows', erase: 'deleted with the commission; kept with a kept commission (the name taken out)' },
   stages: { export: 'rows', erase: 'deleted with the commission; kept with a kept commission' },
