@@ -171,6 +171,9 @@ export function invoicesRepository(db: Db) {
       return insertedId(r);
     },
     update: (trx: Db, studioId: number, id: number, patch: Record<string, unknown>) => trx('invoices').where({ studio_id: studioId, id }).update(patch),
+    /** Adds to the paid total in the database itself, so two payments committed at once on PostgreSQL both count. */
+    addPaid: (trx: Db, studioId: number, id: number, amount: number, at: string) =>
+      trx('invoices').where({ studio_id: studioId, id }).update({ paid: trx.raw('paid + ?', [amount]), updated_at: at }),
     async get(studioId: number, id: number, trx: Db = db) {
       const r = await base(trx, studioId).where('i.id', id).first(invoiceColumns);
       return r ? toRow(r) : undefined;

@@ -299,7 +299,7 @@ export function invoicesService(deps: InvoiceDeps) {
       recorded_by: by.userId,
       created_at: now(),
     });
-    await repo.update(trx, by.studioId, inv.id, { paid: inv.paid + p.amount, updated_at: now() });
+    await repo.addPaid(trx, by.studioId, inv.id, p.amount, now());
     await settle(trx, by, inv.id);
     const s = await studioOf(by.studioId, trx);
     const after = (await repo.get(by.studioId, inv.id, trx))!;
