@@ -1,5 +1,6 @@
 import type { RequestHandler } from 'express';
 import type { ZodType } from 'zod';
+import { dropUnclosedBidiDeep } from '../../shared/text';
 import { AppError } from './errors';
 
 type Schemas = { body?: ZodType; query?: ZodType; params?: ZodType };
@@ -34,7 +35,9 @@ export function validate(schemas: Schemas): RequestHandler {
       res.locals.params = r.data;
     }
     if (schemas.query) res.locals.query = parseOrThrow(schemas.query, req.query, 'query');
-    if (schemas.body) req.body = parseOrThrow(schemas.body, req.body ?? {}, 'body');
+    // A bidirectional override a text leaves open is dropped (shared/text.ts), so no name or note can turn
+    // the app's own words after it backwards on a screen, in an e-mail or a document.
+    if (schemas.body) req.body = dropUnclosedBidiDeep(parseOrThrow(schemas.body, req.body ?? {}, 'body'), (key) => /password/i.test(key));
     next();
   };
 }

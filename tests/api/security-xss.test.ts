@@ -7,7 +7,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { escapeHtml } from '../../server/lib/html';
 import { Caller, linkIn, mailTo, signInAs, startTestApp, type TestApp } from '../support/app';
 import { upload } from '../support/fixtures';
-import { seedHostileStudio, type HostileStudio, type Http } from '../support/hostile';
+import { seedHostileStudio, stored, type HostileStudio, type Http } from '../support/hostile';
 
 const OWNER = 'owner@hostile.demo.test';
 const CLIENT = 'client@hostile.demo.test';
@@ -16,6 +16,8 @@ const DECLINED = 'declined@hostile.demo.test';
 
 let sw: TestApp;
 let h: HostileStudio;
+/** Each field's payload as the API keeps it. */
+let want: Record<string, string>;
 let owner: Caller;
 let client: Caller;
 let S: string;
@@ -33,6 +35,7 @@ beforeAll(async () => {
     visitorEmail: VISITOR,
     declinedEmail: DECLINED,
   });
+  want = Object.fromEntries(Object.entries(h.values).map(([k, v]) => [k, stored(v)]));
   owner = await signInAs(sw, OWNER);
   client = await signInAs(sw, CLIENT);
   S = `/api/studios/${h.studioId}`;
@@ -59,7 +62,7 @@ async function readAll(c: Caller, urls: string[]) {
 }
 
 describe('the API', () => {
-  it('stores every payload and answers it back literally, character for character', async () => {
+  it('stores every payload and answers it back literally, character for character, but a bidi override it never closes', async () => {
     const enquiries = (await owner.get(`${S}/enquiries`)).body.items as { id: number }[];
     const quotes = (await owner.get(`${S}/quotes?commissionId=${h.commissionId}`)).body.items as { id: number }[];
     const invoices = (await owner.get(`${S}/invoices?commissionId=${h.commissionId}`)).body.items as { id: number }[];
@@ -99,15 +102,21 @@ describe('the API', () => {
     // The note to the client about the models lives only in its e-mail (checked below); a hazard's
     // caution comes back with the standard safety footer after it.
     const returned = (value: string) => seen.has(value) || [...seen].some((x) => x.startsWith(`${value} `));
-    const missing = Object.entries(h.values).filter(([field, value]) => field !== 'models.notice' && !returned(value));
+    const missing = Object.entries(want).filter(([field, value]) => field !== 'models.notice' && !returned(value));
     expect(missing.map(([field]) => field)).toEqual([]);
+    // The unclosed right-to-left override (U+202E) is gone; the zero-width space and the closed
+    // right-to-left isolate (U+2067 … U+2069) are kept.
+    expect(h.values['client.name']).toContain('\u202E');
+    expect(want['client.name']).toBe(h.values['client.name'].replace('\u202E', ''));
+    expect(want['client.name']).toContain('\u200B \u2067rtl\u2069');
+    expect(seen.has(h.values['client.name'])).toBe(false);
     expect(Object.keys(h.values).length).toBeGreaterThan(60);
   });
 
   it('gives the client the payloads of their own commission literally too', async () => {
     const seen = await readAll(client, ['/api/auth/me', C, `${C}/comments`, `${C}/approvals`, `${C}/photos`, `${C}/shipments`, `${S}/quotes/${h.quoteId}`, `${S}/quotes?commissionId=${h.commissionId}`, `${S}/invoices/${h.invoiceId}`]);
     for (const field of ['commission.title', 'commission.brief', 'figure.name', 'comment.owner', 'comment.client', 'approval.note', 'approval.changes', 'photo.caption', 'invoice.line', 'invoice.note', 'studio.name', 'price.terms']) {
-      expect(seen.has(h.values[field]), field).toBe(true);
+      expect(seen.has(want[field]), field).toBe(true);
     }
   });
 });
@@ -135,7 +144,7 @@ describe('e-mails', () => {
       }
       for (const [, href] of m.html.matchAll(/\shref\s*=\s*"([^"]*)"/gi)) expect(href, where).toMatch(/^http:\/\/sablework\.test\//);
       // Whatever user text the plain part carries literally, the HTML part carries escaped.
-      for (const [field, value] of Object.entries(h.values)) {
+      for (const [field, value] of Object.entries(want)) {
         if (!m.text.includes(value)) continue;
         carried++;
         expect(m.html.includes(escapeHtml(value)), `${where}: ${field}`).toBe(true);
@@ -145,7 +154,7 @@ describe('e-mails', () => {
   });
 
   it('every payload that belongs in a message reaches it literally in the plain-text part', async () => {
-    const inText = (field: string) => mails.some((m) => m.text.includes(h.values[field]));
+    const inText = (field: string) => mails.some((m) => m.text.includes(want[field]));
     for (const field of ['studio.name', 'owner.name', 'client.name', 'client.user.name', 'commission.title', 'comment.owner', 'comment.client', 'approval.note', 'approval.changes', 'photo.caption', 'quote.changes', 'quote.accepted.name', 'models.notice', 'enquiry.name', 'enquiry.figure', 'enquiry.decline']) {
       expect(inText(field), field).toBe(true);
     }
@@ -224,7 +233,7 @@ describe('the invoice PDF', () => {
       for (let i = 1; i <= doc.numPages; i++) expect(await (await doc.getPage(i)).getAnnotations(), `annotations on page ${i}`).toEqual([]);
       const text = squash((await extractText(doc, { mergePages: true })).text);
       for (const field of ['studio.name', 'client.name', 'client.line1', 'client.line2', 'client.city', 'client.region', 'commission.title', 'invoice.line', 'invoice.note', 'payment.reference', 'tax', 'tax.id']) {
-        expect(text.includes(squash(h.values[field])), `${field} on the PDF`).toBe(true);
+        expect(text.includes(squash(want[field])), `${field} on the PDF`).toBe(true);
       }
     }
   });
@@ -241,14 +250,14 @@ describe('CSV exports', () => {
     const rows = parseCsv(r.text, { bom: true }) as string[][];
     const cells = rows.flat();
     expect(cells.filter(runnable)).toEqual([]);
-    for (const field of ['client.name', 'commission.title', 'tax', 'tax.id']) expect(cells, field).toContain(`'${h.values[field]}`);
+    for (const field of ['client.name', 'commission.title', 'tax', 'tax.id']) expect(cells, field).toContain(`'${want[field]}`);
   });
 
   it('the paint rack export does the same for names, makers, ranges and notes', async () => {
     const r = await owner.get(`${S}/paints/export`).expect(200);
     const cells = (parseCsv(r.text, { bom: true }) as string[][]).flat();
     expect(cells.filter(runnable)).toEqual([]);
-    for (const field of ['paint.name', 'paint.maker', 'paint.range', 'paint.notes']) expect(cells, field).toContain(`'${h.values[field]}`);
+    for (const field of ['paint.name', 'paint.maker', 'paint.range', 'paint.notes']) expect(cells, field).toContain(`'${want[field]}`);
   });
 });
 
@@ -270,12 +279,12 @@ describe('the calendar feed', () => {
     expect(lines.filter((l) => l.startsWith('ATTACH') || l.startsWith('X-INJECTED'))).toEqual([]);
 
     const summaries = lines.filter((l) => l.startsWith('SUMMARY:')).map((l) => unescapeText(l.slice('SUMMARY:'.length)));
-    expect(summaries).toContain(`Due: ${h.values['commission.title']}`);
+    expect(summaries).toContain(`Due: ${want['commission.title']}`);
     const breaker = summaries.find((x) => x.includes('commission2.title'));
     expect(breaker, 'the line-breaking title is in the feed').toBeDefined();
     // Its text survives whole, with its breaks as escaped newlines inside the one SUMMARY value.
     expect(breaker!.replace(/\n/g, ' ')).toBe(`Due: ${h.values['commission2.title'].replace(/\r\n|\r|\n/g, ' ')}`);
     const descriptions = lines.filter((l) => l.startsWith('DESCRIPTION:')).map((l) => unescapeText(l.slice('DESCRIPTION:'.length)));
-    expect(descriptions.some((d) => d.startsWith(`${h.values['client.name']} · `))).toBe(true);
+    expect(descriptions.some((d) => d.startsWith(`${want['client.name']} · `))).toBe(true);
   });
 });

@@ -3,19 +3,23 @@
 // and a browser). The transport is passed in, so both drive exactly the same steps.
 import sharp from 'sharp';
 import { defaultPriceTable } from '../../shared/schemas/price-table';
+import { dropUnclosedBidi } from '../../shared/text';
 
 /** The pieces of a payload, most important first; a field too short for all of them keeps the first ones. */
 const PIECES = [
   '"><img src=x onerror=alert(1)>',
   '<script>alert(1)</script>',
-  '\u202Egpj.exe\u200B',
+  // An override never closed (dropped on the way in), then a closed right-to-left isolate (kept). Its
+  // letters are Latin: the invoice PDF's fonts have no Hebrew or Arabic (see docs/security.md).
+  '\u202Egpj.exe\u200B \u2067rtl\u2069',
   '{{7*7}}${7*7}',
   "javascript:alert('x')",
 ];
 /**
  * A payload that fits in `max` characters, unique by its tag. It starts with "=" (a spreadsheet formula)
- * and holds an attribute break-out with an onerror image, a script tag, a right-to-left override with a
- * zero-width space, template syntax and a javascript: URL, as far as the field's length allows.
+ * and holds an attribute break-out with an onerror image, a script tag, an unclosed right-to-left
+ * override, a zero-width space, a closed right-to-left isolate, template syntax and a javascript: URL, as far
+ * as the field's length allows.
  */
 export function hostile(tag: string, max = 200): string {
   const pieces = [...PIECES];
@@ -26,6 +30,9 @@ export function hostile(tag: string, max = 200): string {
   if (out.length > max) throw new Error(`field "${tag}" is too short for a payload (${max})`);
   return out;
 }
+/** What the API keeps of a payload: all of it but an override it never closes (shared/text.ts). */
+export const stored = dropUnclosedBidi;
+
 /** For fields that look like addresses: what a link would run if anyone made it one. */
 export const jsUrl = (tag: string) => `javascript:alert('${tag}')//`;
 /** Line breaks where one line is expected: tries to add lines to mail headers and calendar entries. */

@@ -25,10 +25,17 @@ const subsetOf = (cp: number): Subset => SUBSETS.find((sub) => coverage[sub].som
 const fontFile = (sub: Subset, weight: 400 | 700) => require.resolve(`@fontsource/inter/files/inter-${sub}-${weight}-normal.woff`);
 const fontName = (sub: Subset, bold: boolean) => `Inter-${sub}-${bold ? 700 : 400}`;
 
+/**
+ * Invisible format characters (bidirectional controls, zero-width spaces, soft hyphens: Unicode's Cf)
+ * are left out: pdfkit applies no bidirectional reordering and Inter has no glyphs for them, so they
+ * would print as blank boxes that the line wrapping does not count.
+ */
+const printable = (s: string) => s.replace(/\p{Cf}/gu, '');
+
 /** Splits text into runs that one subset file covers (a name like "Łucja Wrzos" needs two). */
 function runs(text: string): { text: string; subset: Subset }[] {
   const out: { text: string; subset: Subset }[] = [];
-  for (const ch of text) {
+  for (const ch of printable(text)) {
     const sub = subsetOf(ch.codePointAt(0)!);
     const last = out.at(-1);
     if (last && (last.subset === sub || /\s/.test(ch))) last.text += ch;
@@ -79,7 +86,7 @@ export function invoicePdf(d: InvoiceDocument): Promise<Buffer> {
     });
   };
   /** Height of wrapped text (measured in the main subset; other subsets have the same metrics). */
-  const heightOf = (s: string, w: number, size = 10, bold = false) => doc.font(fontName('latin', bold)).fontSize(size).heightOfString(s, { width: w });
+  const heightOf = (s: string, w: number, size = 10, bold = false) => doc.font(fontName('latin', bold)).fontSize(size).heightOfString(printable(s), { width: w });
 
   // Header: studio and document. Names and addresses wrap within their column rather than run off it
   // or under the next row: a legal document shows every word of them.

@@ -3,6 +3,7 @@
 import { parse } from 'csv-parse/sync';
 import { stringify } from 'csv-stringify/sync';
 import { createPaintInput, paintRowFields, finishLabels, paintTypeLabels, paintTypes, finishes, type CreatePaintInput, type Finish, type Paint, type PaintType } from '../../../shared/schemas/paints';
+import { dropUnclosedBidi } from '../../../shared/text';
 import { csvCell, fromCsvCell } from '../../lib/csv';
 import { fieldErrors } from '../../lib/validate';
 
@@ -114,7 +115,7 @@ export function parsePaintsCsv(text: string): ParseResult {
     const values: Partial<Record<Column, string>> = {};
     r.record.forEach((v, i) => {
       const c = mapping[i];
-      if (c) values[c] = fromCsvCell(v.trim());
+      if (c) values[c] = dropUnclosedBidi(fromCsvCell(v.trim()));
     });
     const problem = checkWords(values);
     if (problem) {
