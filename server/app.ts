@@ -312,19 +312,24 @@ export async function createApp(config: Config) {
         },
       },
       crossOriginEmbedderPolicy: false,
+      // the same answer as the CSP's frame-ancestors 'none', for browsers that only read this header
+      frameguard: { action: 'deny' },
       strictTransportSecurity: config.publicUrl.startsWith('https:'),
     }),
   );
 
   const store = createSessionStore(db, { cleanupInterval: config.runJobs ? 15 * 60_000 : 0 });
+  // On an https address the cookie takes the __Host- prefix: browsers then keep it only if it is Secure, for this
+  // host alone and the whole path, so no other site or subdomain can set or overwrite it.
+  const sessionCookie = config.publicUrl.startsWith('https:') ? '__Host-sablework.sid' : 'sablework.sid';
   const sessionMiddleware = session({
-    name: 'sablework.sid',
+    name: sessionCookie,
     secret: config.sessionSecret,
     store,
     resave: false,
     saveUninitialized: false,
     rolling: true,
-    cookie: { httpOnly: true, sameSite: 'lax', secure: config.trustProxy ? 'auto' : config.publicUrl.startsWith('https:'), maxAge: 14 * 24 * 3600_000 },
+    cookie: { httpOnly: true, sameSite: 'lax', secure: sessionCookie.startsWith('__Host-') ? true : config.trustProxy ? 'auto' : false, maxAge: 14 * 24 * 3600_000 },
   });
 
   const csrf: RequestHandler = (req, _res, next) => {
@@ -342,7 +347,7 @@ export async function createApp(config: Config) {
   const allow = allowFactory(db);
   const meta = { demo: config.demo, devMail: Boolean(capture), ...(config.demo ? { demoPassword: DEMO_PASSWORD } : {}) };
   metaRoutes(r, { meta });
-  authRoutes(r, { auth, invitations, passport: passport as never });
+  authRoutes(r, { auth, invitations, passport: passport as never, sessionCookie });
   studiosRoutes(r, { allow, studios, invitations });
   clientsRoutes(r, { allow, clients, invitations });
   commissionsRoutes(r, { allow, commissions });
@@ -373,6 +378,11 @@ export async function createApp(config: Config) {
   shipmentsRoutes(r, { allow, shipments });
   privacyRoutes(r, { allow, privacy });
 
+  // API answers hold people's data: browsers and proxies keep no copy, unless a route says otherwise (photos, feeds).
+  app.use('/api', (_req, res, next) => {
+    res.set('Cache-Control', 'no-store');
+    next();
+  });
   // The payment webhook needs the exact bytes for its signature check, so it is parsed raw, before JSON.
   app.use('/api/webhooks/payments', express.raw({ type: () => true, limit: '1mb' }));
   app.use('/api', express.json({ limit: '1mb' }), sessionMiddleware, passport.initialize(), passport.session(), csrf, apiRouter);

@@ -8,7 +8,7 @@ beforeAll(async () => {
 });
 afterAll(() => sw.stop());
 
-const sessionCookie = (res: request.Response) => ((res.headers['set-cookie'] as unknown as string[]) ?? []).find((c) => c.startsWith('sablework.sid='));
+const sessionCookie = (res: request.Response) => ((res.headers['set-cookie'] as unknown as string[]) ?? []).find((c) => /^(__Host-)?sablework\.sid=/.test(c));
 
 it('marks the session cookie Secure behind an HTTPS proxy (TRUST_PROXY)', async () => {
   const viaHttps = await request(sw.app).get('/api/auth/csrf').set('X-Forwarded-Proto', 'https');

@@ -23,7 +23,7 @@ const authenticateWith =
       signIn(req, u).then(() => next(), next);
     })(req, res, next);
 
-export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations: InvitationsService; passport: PassportStatic }) {
+export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations: InvitationsService; passport: PassportStatic; sessionCookie?: string }) {
   const { auth, invitations } = deps;
   const authenticate = authenticateWith(deps.passport);
 
@@ -39,7 +39,9 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
   r.post('/auth/login', publicRoute(), validate({ body: loginInput }), authenticate, json((req) => auth.me(user(req).id)));
   r.post('/auth/logout', publicRoute(), json(async (req, res) => {
     if (req.session) await signOut(req);
-    res.clearCookie('sablework.sid');
+    const name = deps.sessionCookie ?? 'sablework.sid';
+    // a __Host- cookie is only replaced by one with the same attributes
+    res.clearCookie(name, { path: '/', httpOnly: true, sameSite: 'lax', secure: name.startsWith('__Host-') });
   }));
   r.get('/auth/me', signedIn(), json((req) => auth.me(user(req).id)));
   r.patch('/auth/me', signedIn(), validate({ body: updateMeInput }), json((req) => auth.updateMe(user(req).id, req.body)));
