@@ -208,10 +208,12 @@ describe('sign-in throttling', () => {
   beforeAll(async () => {
     for (const who of ['pair', 'account', 'spray-victim', 'sprayer']) await signUp(sw, { email: `${who}@throttle.test` });
   });
-  const login = (email: string, password: string, ip: string) => new Caller(sw.app).agent.get('/api/auth/csrf').set('X-Forwarded-For', ip).then(async (r) => {
+  /** A POST from a fresh visitor at the given network address (X-Forwarded-For, the app trusts one proxy). */
+  const postFrom = (ip: string, url: string, body: object) => new Caller(sw.app).agent.get('/api/auth/csrf').set('X-Forwarded-For', ip).then(async (r) => {
     const cookie = cookieOf(r)!;
-    return request(sw.app).post('/api/auth/login').set('Cookie', cookie).set('x-csrf-token', r.body.token).set('X-Forwarded-For', ip).send({ email, password });
+    return request(sw.app).post(url).set('Cookie', cookie).set('x-csrf-token', r.body.token).set('X-Forwarded-For', ip).send(body);
   });
+  const login = (email: string, password: string, ip: string) => postFrom(ip, '/api/auth/login', { email, password });
   const retryAfter = (res: { headers: Record<string, unknown> }) => Number(res.headers['retry-after']);
 
   it(`per e-mail and address: ${THROTTLE_LIMITS.pair} wrong passwords, then 429 with Retry-After even for the right one; another address may still sign in`, async () => {
@@ -256,6 +258,31 @@ describe('sign-in throttling', () => {
     sw.clock.advance(15 * 60_000 + 1000);
     expect((await login('spray-victim@throttle.test', PASSWORD, ip)).status).toBe(200);
   }, 120_000);
+});
+
+describe('sign-in throttling, through an invitation', () => {
+  it("accepting an invitation with an existing account's password is throttled like signing in", async () => {
+    const { caller: owner, studioId } = await signUp(sw, { email: 'inviter@throttle.test' });
+    await signUp(sw, { email: 'invitee@throttle.test' });
+    expect((await owner.post(`/api/studios/${studioId}/invitations`, { email: 'invitee@throttle.test', role: 'painter' })).status).toBe(201);
+    const token = linkIn((await mailTo(sw, 'invitee@throttle.test')).at(-1)!.text, '/invite/');
+    const accept = (password: string, ip: string) =>
+      new Caller(sw.app).agent.get('/api/auth/csrf').set('X-Forwarded-For', ip).then((r) =>
+        request(sw.app).post(`/api/invitations/${token}/accept`).set('Cookie', cookieOf(r)!).set('x-csrf-token', r.body.token).set('X-Forwarded-For', ip).send({ password }),
+      );
+    for (let i = 0; i < THROTTLE_LIMITS.pair; i++) {
+      const wrong = await accept('not the password', '198.51.100.9');
+      expect(wrong.status).toBe(400);
+      expect(wrong.body.error.fields.password).toMatch(/not the password/);
+    }
+    const blocked = await accept(PASSWORD, '198.51.100.9');
+    expect(blocked.status).toBe(429);
+    expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+    expect(Number((await sw.db('memberships').where({ studio_id: studioId }).count({ n: '*' }).first())!.n)).toBe(1);
+    const joined = await accept(PASSWORD, '198.51.100.10');
+    expect(joined.status).toBe(200);
+    expect(joined.body.studioId).toBe(studioId);
+  });
 });
 
 describe('passwords', () => {

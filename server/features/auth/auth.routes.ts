@@ -57,7 +57,7 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
 
   r.get('/invitations/:token', publicRoute(), validate({ params: tokenParams }), json((req) => invitations.preview(String(req.params.token))));
   r.post('/invitations/:token/accept', publicRoute(), validate({ params: tokenParams, body: acceptInvitationInput }), json(async (req) => {
-    const { userId, studioId } = await invitations.accept(String(req.params.token), req.body, req.user?.id);
+    const { userId, studioId } = await invitations.accept(String(req.params.token), req.body, req.user?.id, req.ip ?? 'unknown');
     const result = await auth.me(userId);
     await signIn(req, result.user);
     return { ...result, studioId };

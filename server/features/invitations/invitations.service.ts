@@ -2,7 +2,7 @@ import type { AcceptInvitationInput } from '../../../shared/schemas/auth';
 import type { Role } from '../../../shared/schemas/common';
 import { addMs, DAY, iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
-import { errors } from '../../lib/errors';
+import { AppError, errors } from '../../lib/errors';
 import type { Mailer } from '../../lib/mail/mailer';
 import { templates } from '../../lib/mail/templates';
 import { hashToken, newToken } from '../../lib/tokens';
@@ -101,14 +101,18 @@ export function invitationsService(deps: {
      * A new person sets name and password; an existing account proves itself with its password
      * (or by already being signed in as that address). Returns the user id to sign in.
      */
-    async accept(token: string, input: AcceptInvitationInput, signedInUserId?: number) {
+    async accept(token: string, input: AcceptInvitationInput, signedInUserId?: number, ip = 'unknown') {
       const inv = await usable(token);
       const existing = await deps.users.findUserByEmail(inv.email);
       let newHash: string | null = null;
       if (existing) {
         const isSelf = signedInUserId === existing.id;
-        if (!isSelf && !(await deps.auth.verifyPassword(input.password, existing.password_hash))) {
-          throw errors.field('password', 'That is not the password of this account.');
+        // the account's password, under the same throttle as signing in (it is the same secret, guessed the same way)
+        if (!isSelf) {
+          await deps.auth.verifyLogin({ email: existing.email, password: input.password }, ip).catch((e: unknown) => {
+            if (e instanceof AppError && e.code === 'invalid_credentials') throw errors.field('password', 'That is not the password of this account.');
+            throw e;
+          });
         }
       } else {
         if (!input.name) throw errors.field('name', 'Enter your name.');
