@@ -11,7 +11,7 @@ export const email = z
 
 export const password = z
   .string({ error: 'Enter a password.' })
-  .min(10, 'Use at least 10 characters.')
+  .min(12, 'Use at least 12 characters.')
   .max(200, 'Use at most 200 characters.');
 
 export const personName = z

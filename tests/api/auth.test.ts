@@ -27,7 +27,7 @@ describe('sign-up', () => {
     const res = await c.post('/api/auth/signup', { name: '', email: 'nope', password: 'short', studioName: 'X', currency: 'EURO', timezone: 'Mars/Olympus' });
     expect(res.status).toBe(400);
     expect(Object.keys(res.body.error.fields).sort()).toEqual(['currency', 'email', 'name', 'password', 'studioName', 'timezone']);
-    expect(res.body.error.fields.password).toMatch(/10 characters/);
+    expect(res.body.error.fields.password).toMatch(/12 characters/);
   });
 
   it('refuses a second account for the same address, ignoring case', async () => {

@@ -288,6 +288,23 @@ describe('sign-in throttling, through an invitation', () => {
 describe('passwords', () => {
   const base = { name: 'Long Secret', studioName: 'Long Studio', currency: 'EUR', timezone: 'UTC' };
 
+  it('a new password has at least 12 characters: at sign-up, at a reset and when an invitation makes an account', async () => {
+    const short = 'eleven char'; // 11
+    const signup = await new Caller(sw.app).post('/api/auth/signup', { ...base, email: 'short@passwords.test', password: short });
+    expect(signup.status).toBe(400);
+    expect(signup.body.error.fields.password).toMatch(/12 characters/);
+    expect((await new Caller(sw.app).post('/api/auth/signup', { ...base, email: 'short@passwords.test', password: `${short}s` })).status).toBe(201);
+    const token = await resetLink('short@passwords.test');
+    expect((await new Caller(sw.app).post('/api/auth/password-reset/confirm', { token, password: short })).status).toBe(400);
+    const owner = await signInAs(sw, 'short@passwords.test', `${short}s`);
+    const studioId = (await owner.get('/api/auth/me')).body.memberships[0].studioId;
+    await owner.post(`/api/studios/${studioId}/invitations`, { email: 'newcomer@passwords.test', role: 'painter' });
+    const invite = linkIn((await mailTo(sw, 'newcomer@passwords.test'))[0].text, '/invite/');
+    const accepted = await new Caller(sw.app).post(`/api/invitations/${invite}/accept`, { name: 'Newcomer', password: short });
+    expect(accepted.status).toBe(400);
+    expect(accepted.body.error.fields.password).toMatch(/12 characters/);
+  });
+
   it('does not truncate: a password that differs only after the 72nd byte is refused', async () => {
     const head = 'all the same for a good long while, '.repeat(3); // 108 bytes
     const c = new Caller(sw.app);

@@ -116,7 +116,7 @@ export function invitationsService(deps: {
         }
       } else {
         if (!input.name) throw errors.field('name', 'Enter your name.');
-        if (input.password.length < 10) throw errors.field('password', 'Use at least 10 characters.');
+        if (input.password.length < 12) throw errors.field('password', 'Use at least 12 characters.');
         newHash = await deps.auth.hash(input.password);
       }
       const result = await db.transaction(async (trx) => {

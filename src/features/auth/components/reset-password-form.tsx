@@ -49,7 +49,7 @@ export function ResetPasswordForm({ token, onDone }: { token: string; onDone: (m
         label="New password"
         type="password"
         autoComplete="new-password"
-        hint="At least 10 characters."
+        hint="At least 12 characters."
         error={errors.password?.message}
         {...register('password')}
       />

@@ -51,7 +51,7 @@ export function SignUpForm({ onSignedUp }: { onSignedUp: (me: MeResponse) => voi
           label="Password"
           type="password"
           autoComplete="new-password"
-          hint="At least 10 characters. A short sentence is easy to remember."
+          hint="At least 12 characters. A short sentence is easy to remember."
           error={errors.password?.message}
           {...register('password')}
         />

@@ -53,7 +53,7 @@ export function NewAccountForm({ token, invitation, onAccepted, onGone }: Props)
         label="Choose a password"
         type="password"
         autoComplete="new-password"
-        hint="At least 10 characters."
+        hint="At least 12 characters."
         error={errors.password?.message}
         {...register('password')}
       />
