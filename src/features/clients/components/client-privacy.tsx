@@ -77,10 +77,8 @@ function EraseDialog({ studioId, client, privacy, open, onClose }: { studioId: n
           <p className="font-medium">What goes</p>
           <ul className="ml-5 list-disc text-sable-900">
             <li>Their name, e-mail, phone, address and notes, and their portal account if this is their only studio.</li>
-            <li>
-              {plural(counts.photos, 'photo')}, comments, approvals, scheme notes, shipping details and {plural(counts.enquiries, 'enquiry', 'enquiries')}.
-            </li>
-            <li>Commissions without invoices.</li>
+            <li>{[counts.photos && plural(counts.photos, 'photo'), 'comments, approvals, scheme notes and shipping details', counts.enquiries && plural(counts.enquiries, 'enquiry', 'enquiries')].filter(Boolean).join(', ')}.</li>
+            {counts.commissions > 0 && <li>Commissions without invoices.</li>}
           </ul>
           {counts.issuedInvoices > 0 && (
             <>
@@ -92,7 +90,7 @@ function EraseDialog({ studioId, client, privacy, open, onClose }: { studioId: n
             </>
           )}
         </div>
-        {soft.length > 0 && (
+        {hard.length === 0 && soft.length > 0 && (
           <div className="flex flex-col gap-2 rounded-control border border-primer-300 p-3 text-sm">
             <p>These commissions are still open:</p>
             <BlockerList items={soft} />
@@ -102,21 +100,25 @@ function EraseDialog({ studioId, client, privacy, open, onClose }: { studioId: n
             </label>
           </div>
         )}
-        <TextField
-          label={`Type ${client.name} to confirm`}
-          autoComplete="off"
-          spellCheck={false}
-          value={typed}
-          onChange={(e) => setTyped(e.target.value)}
-          error={typedError ?? undefined}
-        />
+        {hard.length === 0 && (
+          <TextField
+            label={`Type ${client.name} to confirm`}
+            autoComplete="off"
+            spellCheck={false}
+            value={typed}
+            onChange={(e) => setTyped(e.target.value)}
+            error={typedError ?? undefined}
+          />
+        )}
         <div className="flex flex-wrap justify-end gap-2">
           <Button variant="secondary" onClick={close}>
-            Keep the client
+            {hard.length ? 'Close' : 'Keep the client'}
           </Button>
-          <Button type="submit" variant="danger" loading={erase.isPending} disabled={hard.length > 0 || (soft.length > 0 && !alsoOpen)}>
-            Erase client
-          </Button>
+          {hard.length === 0 && (
+            <Button type="submit" variant="danger" loading={erase.isPending} disabled={soft.length > 0 && !alsoOpen}>
+              Erase client
+            </Button>
+          )}
         </div>
       </form>
     </Dialog>
