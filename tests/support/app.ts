@@ -15,19 +15,19 @@ export type TestApp = SableworkApp & { clock: ReturnType<typeof manualClock>; da
 type OwnDatabase = { url: string; drop(): Promise<void> };
 
 /**
- * With DATABASE_URL set (a PostgreSQL server), each test app gets a database of its own, created from
- * that URL's server and dropped when the app stops; without it, SQLite in the temporary DATA_DIR.
- * The databases are copies of one template migrated once per run (tests/support/pg-template.ts), so an
- * app starts without running every migration again. Commits skip the wait for the disk
- * (synchronous_commit off, for these throwaway databases only).
+ * With DATABASE_URL set (a PostgreSQL server), each test app gets a database of its own on that URL's
+ * server; without it, SQLite in the temporary DATA_DIR. The databases are copies of one template
+ * migrated once per run (tests/support/pg-template.ts), so an app starts without running every migration
+ * again, and their names carry the run's id, so the run's teardown drops any a test left behind.
+ * Commits skip the wait for the disk (synchronous_commit off, on these throwaway databases only).
  */
 async function ownPostgresDatabase(): Promise<OwnDatabase | null> {
   const base = process.env.DATABASE_URL;
   if (!base) return null;
-  const name = `sablework_test_${process.pid}_${crypto.randomBytes(4).toString('hex')}`;
-  const template = inject('pgTemplate');
+  const pg = inject('pg');
+  const name = `${pg?.prefix ?? 'sablework_test_'}${crypto.randomBytes(4).toString('hex')}`;
   const admin = knexFactory({ client: 'pg', connection: base, pool: { min: 0, max: 1 } });
-  await admin.raw(template ? `create database ${name} template ${template}` : `create database ${name}`);
+  await admin.raw(pg ? `create database ${name} template ${pg.template}` : `create database ${name}`);
   await admin.raw(`alter database ${name} set synchronous_commit = off`);
   const url = new URL(base);
   url.pathname = `/${name}`;
@@ -41,30 +41,36 @@ async function ownPostgresDatabase(): Promise<OwnDatabase | null> {
 }
 
 /**
- * The PostgreSQL database of a DATA_DIR: an app started again on the same DATA_DIR (a restart after
- * close()) finds the data the first one left, as it would in the SQLite file.
+ * The PostgreSQL database of a DATA_DIR, standing in for the SQLite file in it: an app started again on
+ * the same DATA_DIR (after close(), or after stop() when the test made the folder) finds the data the
+ * first one left.
  */
 const databaseOfDataDir = new Map<string, OwnDatabase>();
 
 /**
  * A real app on a fresh temporary DATA_DIR with a clock the test moves. `sqlite: true` keeps the app on
  * the SQLite file in DATA_DIR even when DATABASE_URL is set (for tests of that file itself, like backups).
+ * stop() removes the temporary DATA_DIR and its database; a DATA_DIR the test passed in stays, and so
+ * does its database (until the run ends).
  */
 export async function startTestApp(options: Partial<Config> & { dataDir?: string; sqlite?: boolean } = {}): Promise<TestApp> {
   const { sqlite, ...overrides } = options;
+  const ownDir = !overrides.dataDir;
   const dataDir = overrides.dataDir ?? fs.mkdtempSync(path.join(os.tmpdir(), 'sablework-test-'));
   const clock = manualClock();
   const pg = overrides.databaseUrl || sqlite ? null : (databaseOfDataDir.get(dataDir) ?? (await ownPostgresDatabase()));
   if (pg) databaseOfDataDir.set(dataDir, pg);
+  const forget = async () => {
+    if (!pg || !ownDir) return;
+    databaseOfDataDir.delete(dataDir);
+    await pg.drop();
+  };
   const config = loadConfig(
     { DATA_DIR: dataDir },
     { clock, databaseUrl: pg?.url, logLevel: 'silent', runJobs: false, serveClient: false, demo: false, bcryptRounds: 4, publicUrl: 'http://sablework.test', ...overrides },
   );
   const sw = await createApp(config).catch(async (err: unknown) => {
-    if (pg) {
-      databaseOfDataDir.delete(dataDir);
-      await pg.drop();
-    }
+    await forget();
     throw err;
   });
   return Object.assign(sw, {
@@ -72,11 +78,8 @@ export async function startTestApp(options: Partial<Config> & { dataDir?: string
     dataDir,
     async stop() {
       await sw.close();
-      if (pg) {
-        databaseOfDataDir.delete(dataDir);
-        await pg.drop();
-      }
-      if (!overrides.dataDir) fs.rmSync(dataDir, { recursive: true, force: true });
+      await forget();
+      if (ownDir) fs.rmSync(dataDir, { recursive: true, force: true });
     },
   });
 }
