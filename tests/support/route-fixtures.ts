@@ -97,3 +97,34 @@ export function fill(path: string, values: RouteIds, over: Record<string, string
     return v;
   });
 }
+
+/**
+ * Valid bodies (and queries) for the routes that check their body before their records, so that a foreign id on
+ * them meets the record lookup instead of a 400 for the body. Keyed `METHOD /api/path`; a route without one is
+ * called with `{}`. `ids` are the caller's own studio's records (a body may name one).
+ */
+export function sampleInputs(ids: RouteIds): Record<string, { body?: unknown; query?: string }> {
+  return {
+    'PATCH /api/studios/:studioId/commissions/:commissionId/scheme-notes': { body: { schemeNotes: 'Notes' } },
+    'POST /api/studios/:studioId/commissions/:commissionId/transitions': { body: { to: 'on_hold', reason: 'Waiting' } },
+    'POST /api/studios/:studioId/commissions/:commissionId/figures': { body: { name: 'Extra', quantity: 1, sizeClass: '28', tier: 'tabletop' } },
+    'POST /api/studios/:studioId/stages/:stageId/time': { body: { hours: 1 } },
+    'POST /api/studios/:studioId/commissions/:commissionId/comments': { body: { body: 'A comment' } },
+    'POST /api/studios/:studioId/commissions/:commissionId/approvals': { body: { subject: 'scheme' } },
+    'POST /api/studios/:studioId/approvals/:approvalId/request-changes': { body: { comment: 'Change this' } },
+    'POST /api/studios/:studioId/quotes/:quoteId/accept': { body: { name: 'Client', acceptTerms: true } },
+    'POST /api/studios/:studioId/quotes/:quoteId/request-changes': { body: { comment: 'Change this' } },
+    'POST /api/studios/:studioId/invoices/:invoiceId/payments': { body: { method: 'cash', amountMinor: 100 } },
+    'POST /api/studios/:studioId/invoices/:invoiceId/refunds': { body: { amountMinor: 100, reason: 'Refund' } },
+    'POST /api/studios/:studioId/commissions/:commissionId/cancellation': { body: { reason: 'Cancelled' } },
+    'PUT /api/studios/:studioId/capacity/painters/:painterId/hours': { body: { hours: {} } },
+    'PUT /api/studios/:studioId/recipes/:recipeId': { body: { name: 'Renamed' } },
+    'POST /api/studios/:studioId/commissions/:commissionId/scheme': { body: { area: 'Cloak', recipeId: Number(ids.recipeId) } },
+    'GET /api/studios/:studioId/reference-photos/:referencePhotoId/point': { query: 'x=0.5&y=0.5' },
+    'POST /api/studios/:studioId/enquiries/:enquiryId/decline': { body: { message: 'Not this time' } },
+    'PUT /api/studios/:studioId/commissions/:commissionId/models-in': { body: { supplier: 'client_ships' } },
+    'POST /api/studios/:studioId/commissions/:commissionId/models-in/notice': { body: { message: 'A note' } },
+    'POST /api/studios/:studioId/commissions/:commissionId/shipments/:shipmentId/delivered': { body: { deliveredOn: '2026-03-02' } },
+    'POST /api/studios/:studioId/clients/:clientId/erase': { body: { confirmName: 'Nobody' } },
+  };
+}
