@@ -10,6 +10,7 @@ import { isApiError } from '../../../lib/api-client';
 import { formatDate } from '../../../lib/format';
 import { useStudioScope } from '../../../lib/studio-scope';
 import { clientQueryOptions } from '../api/get-client';
+import { clientPrivacyQueryOptions } from '../api/get-client-privacy';
 import { useUpdateClient } from '../api/update-client';
 import { ClientDetails } from '../components/client-details';
 import { ClientForm } from '../components/client-form';
@@ -24,6 +25,9 @@ export function ClientDetailRoute() {
   const valid = Number.isInteger(clientId) && clientId > 0;
   const client = useQuery({ ...clientQueryOptions(studioId, clientId), enabled: valid });
   const update = useUpdateClient(studioId, clientId);
+  // An erased client is a placeholder kept for its invoices: nothing to edit or invite any more.
+  const privacy = useQuery({ ...clientPrivacyQueryOptions(studioId, clientId), enabled: valid && role === 'owner' });
+  const erased = Boolean(privacy.data?.erasedAt);
   const toast = useToast();
   useDocumentTitle(client.data?.name ?? 'Client');
 
@@ -47,7 +51,7 @@ export function ClientDetailRoute() {
   }
 
   const c = client.data;
-  const canEdit = role === 'owner';
+  const canEdit = role === 'owner' && !erased;
 
   return (
     <>
@@ -58,6 +62,7 @@ export function ClientDetailRoute() {
           <span className="inline-flex flex-wrap items-center gap-2">
             <span>Client since {formatDate(c.createdAt, timezone)}</span>
             {c.hasAccount && <Badge tone="info">In the portal</Badge>}
+            {erased && <Badge>Erased</Badge>}
           </span>
         }
       />
@@ -83,7 +88,7 @@ export function ClientDetailRoute() {
             <ClientDetails client={c} />
           )}
         </Card>
-        {canEdit && (
+        {role === 'owner' && (
           <Card title="Privacy">
             <ClientPrivacyPanel studioId={studioId} client={c} timezone={timezone} />
           </Card>
