@@ -417,6 +417,13 @@ describe('erase', () => {
     expect(summary.blockers).toEqual([]);
   });
 
+  it('refuses to edit the placeholder, so no name or address can be written back', async () => {
+    const res = await a.owner.patch(`${A()}/clients/${clientId}`, { name: NAME, email: EMAIL });
+    expect(res.status).toBe(409);
+    expect(res.body.error.code).toBe('client_erased');
+    expect((await sw.db('clients').where({ id: clientId }).first()).name).toBe(`Erased client ${clientId}`);
+  });
+
   it('still exports the placeholder with the kept invoices', async () => {
     const res = await exportZip(a.owner, a.studioId, clientId);
     expect(res.status).toBe(200);

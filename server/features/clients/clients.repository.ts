@@ -5,6 +5,7 @@ type ClientRow = {
   id: number;
   studio_id: number;
   user_id: number | null;
+  erased_at?: string | null;
   name: string;
   email: string | null;
   phone: string | null;

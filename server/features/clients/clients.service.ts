@@ -31,6 +31,8 @@ export function clientsService(deps: { db: Db; repo: ClientsRepository; clock: C
     async update(studioId: number, id: number, input: UpdateClientInput) {
       const current = await repo.get(studioId, id);
       if (!current) throw errors.notFound('That client');
+      // An erased client is a placeholder kept for its invoices; writing a name or address back would undo the erase.
+      if (current.erased_at) throw errors.conflict('This client was erased; the placeholder kept for the invoices cannot be edited.', 'client_erased');
       if (current.user_id && 'email' in input && input.email !== current.email) {
         throw errors.field('email', 'This client has an account; they change their e-mail address themselves.');
       }
