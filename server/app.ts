@@ -17,6 +17,7 @@ import { createMailer } from './lib/mail/mailer';
 import { allowFactory, type AuthUser } from './lib/policy';
 import { listRoutes, routeTable } from './lib/routes';
 import { createSessionStore } from './lib/session-store';
+import { accountRef, hideTokens, LOGGED_REFUSALS, REDACTED, requester } from './lib/security-log';
 import { safeEqual } from './lib/tokens';
 import { startMailCapture } from './fakes/mail-capture';
 import { startPaymentsFake } from './fakes/payments-fake';
@@ -131,7 +132,9 @@ const UNSAFE = new Set(['POST', 'PUT', 'PATCH', 'DELETE']);
 const CSRF_EXEMPT = new Set(['/api/webhooks/payments']);
 
 export async function createApp(config: Config) {
-  const log = pino({ level: config.logLevel });
+  // Secrets never reach the log: redacted where they could appear, and requests are logged by method and path only.
+  const logOptions = { level: config.logLevel, redact: { paths: REDACTED, censor: '[hidden]' } };
+  const log = config.logDestination ? pino(logOptions, config.logDestination) : pino(logOptions);
   const db = openDb(config);
   await migrate(db);
 
@@ -286,6 +289,7 @@ export async function createApp(config: Config) {
   app.use(
     pinoHttp({
       logger: log,
+      serializers: { req: (r: { id: unknown; method: string; url: string; remoteAddress?: string }) => ({ id: r.id, method: r.method, url: hideTokens(r.url), remoteAddress: r.remoteAddress }) },
       genReqId: (_req, res) => {
         const id = crypto.randomUUID();
         res.setHeader('x-request-id', id);
@@ -405,6 +409,11 @@ export async function createApp(config: Config) {
       const id = String(req.id);
       res.status(500).json({ error: { code: 'internal', message: `Something went wrong on our side. If it keeps happening, quote request ${id}.`, requestId: id } });
       return;
+    }
+    const refusal = (err as { refusal?: string }).refusal;
+    if (LOGGED_REFUSALS.has(e.code) || refusal) {
+      const account = e.code === 'invalid_credentials' || e.code === 'throttled' ? accountRef(req.body?.email) : undefined;
+      req.log.warn({ event: 'security.refused', code: e.code, status: e.status, refusal, account, ...requester(req) }, `refused: ${refusal ?? e.code}`);
     }
     if (e.headers) res.set(e.headers);
     res.status(e.status).json({ error: { code: e.code, message: e.message, ...(e.fields ? { fields: e.fields } : {}), ...e.extra } });

@@ -1,4 +1,5 @@
 import path from 'node:path';
+import type { DestinationStream } from 'pino';
 import { z } from 'zod';
 import { systemClock, type Clock } from './lib/clock';
 
@@ -48,6 +49,8 @@ export type Config = {
   paymentsFakePort: number;
   bcryptRounds: number;
   logLevel: string;
+  /** Where log lines go (standard output when unset); tests collect them. */
+  logDestination?: DestinationStream;
   clock: Clock;
   /** Serve the built client from dist/ (off in API tests). */
   serveClient: boolean;

@@ -57,7 +57,8 @@ export function allowFactory(db: Db) {
         })
         .where({ 'm.studio_id': studioId, 'm.user_id': req.user.id })
         .first('m.role', 'c.id as client_id');
-      if (!row) throw errors.notFound();
+      // a non-member learns nothing (404); the log says why
+      if (!row) throw Object.assign(errors.notFound(), { refusal: 'not-a-member' });
       if (!roles.includes(row.role)) throw errors.forbidden();
       req.member = { studioId, role: row.role, clientId: row.client_id ?? null };
       next();

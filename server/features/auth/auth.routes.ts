@@ -1,17 +1,22 @@
 import crypto from 'node:crypto';
 import type { PassportStatic } from 'passport';
-import type { RequestHandler } from 'express';
+import type { Request, RequestHandler } from 'express';
 import { acceptInvitationInput, loginInput, resetConfirmInput, resetRequestInput, signupInput, updateMeInput } from '../../../shared/schemas/auth';
 import { z } from 'zod';
 import type { AuthUser } from '../../lib/policy';
 import { publicRoute, signedIn, user } from '../../lib/policy';
 import { json, type RouteTable } from '../../lib/routes';
+import { accountRef, requester } from '../../lib/security-log';
 import { signIn, signOut } from '../../lib/session';
 import { validate } from '../../lib/validate';
 import type { InvitationsService } from '../invitations/invitations.service';
 import type { AuthService } from './auth.service';
 
 const tokenParams = z.object({ token: z.string().min(10).max(200) });
+
+/** Sign-ins, sign-outs and reset requests go to the log (ASVS 7.1.3, 7.2.1): who, how, from where; no secrets. */
+const logSignIn = (req: Request, how: 'password' | 'sign-up' | 'password-reset' | 'invitation') =>
+  req.log.info({ event: 'security.signed-in', how, ...requester(req) }, `signed in (${how})`);
 
 /** passport.authenticate('local') with a callback, so our error factory renders its failures. */
 const authenticateWith =
@@ -34,10 +39,15 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
   r.post('/auth/signup', publicRoute(), validate({ body: signupInput }), json(async (req) => {
     const result = await auth.signup(req.body);
     await signIn(req, result.user);
+    logSignIn(req, 'sign-up');
     return result;
   }, 201));
-  r.post('/auth/login', publicRoute(), validate({ body: loginInput }), authenticate, json((req) => auth.me(user(req).id)));
+  r.post('/auth/login', publicRoute(), validate({ body: loginInput }), authenticate, json((req) => {
+    logSignIn(req, 'password');
+    return auth.me(user(req).id);
+  }));
   r.post('/auth/logout', publicRoute(), json(async (req, res) => {
+    if (req.user) req.log.info({ event: 'security.signed-out', ...requester(req) }, 'signed out');
     if (req.session) await signOut(req);
     const name = deps.sessionCookie ?? 'sablework.sid';
     // a __Host- cookie is only replaced by one with the same attributes
@@ -46,12 +56,14 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
   r.get('/auth/me', signedIn(), json((req) => auth.me(user(req).id)));
   r.patch('/auth/me', signedIn(), validate({ body: updateMeInput }), json((req) => auth.updateMe(user(req).id, req.body)));
   r.post('/auth/password-reset', publicRoute(), validate({ body: resetRequestInput }), json(async (req) => {
+    req.log.info({ event: 'security.reset-requested', account: accountRef(req.body.email), ...requester(req) }, 'password reset asked for');
     await auth.requestReset(req.body.email);
     return { ok: true };
   }, 202));
   r.post('/auth/password-reset/confirm', publicRoute(), validate({ body: resetConfirmInput }), json(async (req) => {
     const result = await auth.confirmReset(req.body);
     await signIn(req, result.user);
+    logSignIn(req, 'password-reset');
     return result;
   }));
 
@@ -60,6 +72,7 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
     const { userId, studioId } = await invitations.accept(String(req.params.token), req.body, req.user?.id, req.ip ?? 'unknown');
     const result = await auth.me(userId);
     await signIn(req, result.user);
+    logSignIn(req, 'invitation');
     return { ...result, studioId };
   }));
 }
