@@ -85,8 +85,24 @@ const migrationSource: Knex.MigrationSource<string> = {
   getMigration: (name) => import(pathToFileURL(path.join(migrationsDir, name)).href),
 };
 
+/** Key of the PostgreSQL advisory lock that lets one instance at a time run the migrations. */
+const MIGRATION_LOCK_KEY = 7_325_160_411;
+
+/**
+ * Runs the migrations not yet run. On PostgreSQL, instances that start together take turns: an open
+ * transaction holds an advisory lock while Knex migrates on other connections, and the next instance
+ * finds nothing left to do. (Knex's own lock row does not cover a fresh database, where both would race
+ * to create Knex's tables.)
+ */
 export async function migrate(db: Db) {
-  await db.migrate.latest({ migrationSource });
+  if (db.client.config.client !== 'pg') {
+    await db.migrate.latest({ migrationSource });
+    return;
+  }
+  await db.transaction(async (trx) => {
+    await trx.raw('select pg_advisory_xact_lock(?)', [MIGRATION_LOCK_KEY]);
+    await db.migrate.latest({ migrationSource });
+  });
 }
 
 export async function rollbackAll(db: Db) {
