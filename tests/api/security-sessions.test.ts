@@ -3,7 +3,7 @@
 // or from many, passwords longer than bcrypt reads.
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { THROTTLE_LIMITS } from '../../server/features/auth/auth.service';
+import { RESET_LIMITS, THROTTLE_LIMITS } from '../../server/features/auth/auth.service';
 import { Caller, PASSWORD, linkIn, mailTo, signInAs, signUp, startTestApp, type TestApp } from '../support/app';
 
 let sw: TestApp;
@@ -105,6 +105,22 @@ describe('session fixation', () => {
       expect(JSON.stringify(res.body ?? '')).not.toContain(sid);
       expect(String(res.headers.location ?? '')).not.toContain(sid);
     }
+  });
+
+  it("a visitor's session lasts an hour; signing in starts one of 14 days", async () => {
+    const c = new Caller(sw.app);
+    const lifetime = (res: Res) => {
+      const cookie = ((res.headers['set-cookie'] as string[] | undefined) ?? []).find((x) => x.startsWith('sablework.sid='))!;
+      return (Date.parse(cookie.match(/Expires=([^;]+)/)![1]) - Date.parse(String(res.headers.date))) / 1000;
+    };
+    const visitor = await c.agent.get('/api/auth/csrf');
+    expect(Math.abs(lifetime(visitor) - 3600)).toBeLessThan(5);
+    // still an hour on the next request (the session is renewed by use, for its own length)
+    expect(Math.abs(lifetime(await c.agent.get('/api/auth/csrf')) - 3600)).toBeLessThan(5);
+    const login = await c.post('/api/auth/login', { email: 'new@sessions.test', password: PASSWORD });
+    expect(Math.abs(lifetime(login) - 14 * 24 * 3600)).toBeLessThan(5);
+    // and the hour-long visitor session is gone with the sign-in
+    expect(await sw.db('sessions').where({ sid: sidIn(cookieOf(visitor)!) }).first()).toBeUndefined();
   });
 
   it('session ids are 192-bit random strings, never repeated', async () => {
@@ -258,6 +274,37 @@ describe('sign-in throttling', () => {
     sw.clock.advance(15 * 60_000 + 1000);
     expect((await login('spray-victim@throttle.test', PASSWORD, ip)).status).toBe(200);
   }, 120_000);
+});
+
+describe('password reset requests', () => {
+  const askFrom = (ip: string, email: string) =>
+    new Caller(sw.app).agent.get('/api/auth/csrf').set('X-Forwarded-For', ip).then((r) =>
+      request(sw.app).post('/api/auth/password-reset').set('Cookie', cookieOf(r)!).set('x-csrf-token', r.body.token).set('X-Forwarded-For', ip).send({ email }),
+    );
+  const resetMails = async (email: string) => (await mailTo(sw, email)).filter((m) => m.subject.includes('new Sablework password')).length;
+
+  it(`mail one address at most ${RESET_LIMITS.mailsPerAccount} times an hour, whoever asks, and answer the same every time`, async () => {
+    await signUp(sw, { email: 'inbox@reset.test' });
+    const unknown = await askFrom('198.51.100.50', 'nobody@reset.test');
+    for (let i = 0; i < RESET_LIMITS.mailsPerAccount + 3; i++) {
+      const res = await askFrom(`198.51.100.${60 + i}`, 'inbox@reset.test');
+      expect(res.status).toBe(unknown.status);
+      expect(res.body).toEqual(unknown.body);
+    }
+    expect(await resetMails('inbox@reset.test')).toBe(RESET_LIMITS.mailsPerAccount);
+    sw.clock.advance(60 * 60_000 + 1000);
+    expect((await askFrom('198.51.100.99', 'inbox@reset.test')).status).toBe(202);
+    expect(await resetMails('inbox@reset.test')).toBe(RESET_LIMITS.mailsPerAccount + 1);
+  });
+
+  it(`one network address may ask ${RESET_LIMITS.requestsPerAddress} times an hour, then 429 with Retry-After`, async () => {
+    for (let i = 0; i < RESET_LIMITS.requestsPerAddress; i++) expect((await askFrom('192.0.2.200', `someone-${i}@reset.test`)).status).toBe(202);
+    const blocked = await askFrom('192.0.2.200', 'inbox@reset.test');
+    expect(blocked.status).toBe(429);
+    expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+    expect(Number(blocked.headers['retry-after'])).toBeLessThanOrEqual(3600);
+    expect((await askFrom('192.0.2.201', 'someone-0@reset.test')).status).toBe(202);
+  });
 });
 
 describe('sign-in throttling, through an invitation', () => {

@@ -6,6 +6,7 @@ import { z } from 'zod';
 import type { AuthUser } from '../../lib/policy';
 import { publicRoute, signedIn, user } from '../../lib/policy';
 import { json, type RouteTable } from '../../lib/routes';
+import { HOUR } from '../../lib/clock';
 import { accountRef, requester } from '../../lib/security-log';
 import { signIn, signOut } from '../../lib/session';
 import { validate } from '../../lib/validate';
@@ -33,6 +34,8 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
   const authenticate = authenticateWith(deps.passport);
 
   r.get('/auth/csrf', publicRoute(), (req, res) => {
+    // a visitor's session (a token for the public forms) lasts an hour; signing in starts a new one of 14 days
+    if (!req.user && !req.session.csrf) req.session.cookie.maxAge = HOUR;
     req.session.csrf ??= crypto.randomBytes(24).toString('base64url');
     res.set('Cache-Control', 'no-store').json({ token: req.session.csrf });
   });
@@ -57,7 +60,7 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
   r.patch('/auth/me', signedIn(), validate({ body: updateMeInput }), json((req) => auth.updateMe(user(req).id, req.body)));
   r.post('/auth/password-reset', publicRoute(), validate({ body: resetRequestInput }), json(async (req) => {
     req.log.info({ event: 'security.reset-requested', account: accountRef(req.body.email), ...requester(req) }, 'password reset asked for');
-    await auth.requestReset(req.body.email);
+    await auth.requestReset(req.body.email, req.ip ?? 'unknown');
     return { ok: true };
   }, 202));
   r.post('/auth/password-reset/confirm', publicRoute(), validate({ body: resetConfirmInput }), json(async (req) => {

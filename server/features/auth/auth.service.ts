@@ -18,6 +18,11 @@ const THROTTLE_WINDOW_MS = 15 * 60_000;
  */
 export const THROTTLE_LIMITS = { pair: 10, account: 20, address: 50 } as const;
 const RESET_TTL_MS = HOUR;
+/**
+ * Reset requests within an hour: mails to one address (more are not sent, and the answer stays the same, so
+ * nobody learns whether the address has an account or fills its inbox); requests from one network address (429).
+ */
+export const RESET_LIMITS = { mailsPerAccount: 5, requestsPerAddress: 30 } as const;
 
 /**
  * bcrypt reads only the first 72 bytes of its input. A longer password (up to 200 characters of any script) is
@@ -105,10 +110,20 @@ export function authService(deps: {
       return me(userId);
     },
 
-    /** Same answer whether or not the address has an account. */
-    async requestReset(email: string) {
+    /** Same answer whether or not the address has an account, and whether or not a mail goes out (RESET_LIMITS). */
+    async requestReset(email: string, ip = 'unknown') {
+      const since = iso(addMs(clock.now(), -HOUR));
+      const addressKey = `reset-address:${ip}`;
+      if ((await repo.countFailures(addressKey, since)) >= RESET_LIMITS.requestsPerAddress) {
+        const oldest = await repo.oldestFailure(addressKey, since);
+        throw errors.throttled(oldest ? (new Date(oldest).getTime() + HOUR - clock.now().getTime()) / 1000 : HOUR / 1000);
+      }
+      await repo.addFailure(addressKey, now());
       const u = await repo.findUserByEmail(email);
       if (!u) return;
+      const accountKey = `reset:${u.email}`;
+      if ((await repo.countFailures(accountKey, since)) >= RESET_LIMITS.mailsPerAccount) return;
+      await repo.addFailure(accountKey, now());
       const token = newToken();
       await repo.createReset({ userId: u.id, tokenHash: hashToken(token), expiresAt: iso(addMs(clock.now(), RESET_TTL_MS)), now: now() });
       const url = `${deps.publicUrl}/reset-password/${token}`;
@@ -151,7 +166,8 @@ export function authService(deps: {
       return me(userId);
     },
 
-    pruneFailures: () => repo.pruneFailures(iso(addMs(clock.now(), -THROTTLE_WINDOW_MS))),
+    // the longest window that counts (reset requests: an hour)
+    pruneFailures: () => repo.pruneFailures(iso(addMs(clock.now(), -Math.max(THROTTLE_WINDOW_MS, HOUR)))),
   };
 }
 
