@@ -1,14 +1,46 @@
 // The same code on SQLite and PostgreSQL: what the database hands back, how a broken key is recognised, and
 // (PostgreSQL only, where instances share one database) migrations run by several instances starting at once.
-import fs from 'node:fs';
 import crypto from 'node:crypto';
+import fs from 'node:fs';
+import os from 'node:os';
 import path from 'node:path';
 import knexFactory from 'knex';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { isUniqueViolation, migrate, openDb } from '../../server/lib/db';
+import { isUniqueViolation, migrate, openDb, rollbackAll, type Db } from '../../server/lib/db';
 import { signUp, startTestApp, type TestApp } from '../support/app';
 
 let sw: TestApp;
+
+/** A database of its own, empty: a new SQLite file, or a new PostgreSQL database on DATABASE_URL's server. */
+async function emptyDatabase(): Promise<{ open(): Db; drop(): Promise<void> }> {
+  const base = process.env.DATABASE_URL;
+  if (!base) {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'sablework-db-'));
+    return { open: () => openDb({ dataDir: dir }), drop: async () => fs.rmSync(dir, { recursive: true, force: true }) };
+  }
+  const name = `sablework_db_${crypto.randomBytes(4).toString('hex')}`;
+  const admin = knexFactory({ client: 'pg', connection: base, pool: { min: 0, max: 1 } });
+  await admin.raw(`create database ${name}`);
+  const url = new URL(base);
+  url.pathname = `/${name}`;
+  return {
+    open: () => openDb({ dataDir: '', databaseUrl: url.toString() }),
+    async drop() {
+      await admin.raw(`drop database if exists ${name} with (force)`);
+      await admin.destroy();
+    },
+  };
+}
+
+const migrationFiles = () => fs.readdirSync(path.resolve(import.meta.dirname, '../../migrations')).filter((f) => /^\d{14}-[a-z0-9-]+\.ts$/.test(f)).sort();
+
+async function tablesOf(db: Db): Promise<string[]> {
+  const names: string[] =
+    db.client.config.client === 'pg'
+      ? await db('pg_tables').where({ schemaname: 'public' }).pluck('tablename')
+      : await db('sqlite_master').where({ type: 'table' }).whereNot('name', 'like', 'sqlite_%').pluck('name');
+  return names.sort();
+}
 beforeAll(async () => {
   sw = await startTestApp();
   await signUp(sw, { email: 'numbers-one@example.test', studioName: 'Numbers One' });
@@ -51,6 +83,26 @@ describe(`the database (${process.env.DATABASE_URL ? 'PostgreSQL' : 'SQLite'})`,
   });
 });
 
+describe('the migrations', () => {
+  it('each has a working down: all roll back to an empty schema and run again to the same tables', async () => {
+    const empty = await emptyDatabase();
+    const db = empty.open();
+    try {
+      await migrate(db);
+      const tables = await tablesOf(db);
+      expect(tables).toContain('commissions');
+      await rollbackAll(db);
+      expect(await tablesOf(db)).toEqual(['knex_migrations', 'knex_migrations_lock']);
+      await migrate(db);
+      expect(await tablesOf(db)).toEqual(tables);
+      expect(await db('knex_migrations').orderBy('id').pluck('name')).toEqual(migrationFiles());
+    } finally {
+      await db.destroy();
+      await empty.drop();
+    }
+  });
+});
+
 describe.runIf(process.env.DATABASE_URL)('PostgreSQL shared by several instances', () => {
   it('migrates a fresh database once when three instances start at the same moment', async () => {
     const base = process.env.DATABASE_URL!;
@@ -63,9 +115,7 @@ describe.runIf(process.env.DATABASE_URL)('PostgreSQL shared by several instances
     try {
       const outcomes = await Promise.allSettled(instances.map((db) => migrate(db)));
       expect(outcomes.map((o) => (o.status === 'rejected' ? String(o.reason) : o.status))).toEqual(['fulfilled', 'fulfilled', 'fulfilled']);
-      const files = fs.readdirSync(path.resolve(import.meta.dirname, '../../migrations')).filter((f) => /^\d{14}-[a-z0-9-]+\.ts$/.test(f));
-      const ran = await instances[0]('knex_migrations').orderBy('id').pluck('name');
-      expect(ran).toEqual([...files].sort());
+      expect(await instances[0]('knex_migrations').orderBy('id').pluck('name')).toEqual(migrationFiles());
     } finally {
       for (const db of instances) await db.destroy();
       await admin.raw(`drop database if exists ${name} with (force)`);
