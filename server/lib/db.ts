@@ -64,6 +64,11 @@ export function openDb(opts: { dataDir: string; databaseUrl?: string }): Db {
         conn.pragma('foreign_keys = ON');
         conn.pragma('busy_timeout = 5000');
         conn.pragma('synchronous = NORMAL');
+        // Table statistics for the query planner (SQLite's advice for long-lived connections): without them it
+        // picks an index by the ORDER BY and walks every stage of a studio to read one commission's. Bounded
+        // by analysis_limit, so it stays well under a second on a million stages.
+        conn.pragma('analysis_limit = 400');
+        conn.pragma('optimize = 0x10002');
         done(null, conn);
       },
     },

@@ -3,7 +3,7 @@
 import { z } from 'zod';
 import { commissionStatuses, priorities, stageStatuses, type CommissionStatus, type Priority, type Progress, type StageStatus } from '../commission-lifecycle';
 import { hazardKeys, type HazardKey } from '../hazards';
-import { id, optionalText, pageQuery } from './common';
+import { id, optionalText, pageParams, pageQuery } from './common';
 
 export const sizeClasses = ['25', '28', '32', '40', '50', '60', '80', '100', '120', '160', 'large'] as const;
 export type SizeClass = (typeof sizeClasses)[number];
@@ -182,12 +182,15 @@ export const updateTimeInput = z.object({
 });
 export type UpdateTimeInput = z.infer<typeof updateTimeInput>;
 
-export const boardQuery = z.object({
+/** The board holds one page of figures (soonest due first), `limit` of them from `offset`. */
+export const boardQuery = pageParams(100).extend({
   painterId: id.optional(),
   commissionId: id.optional(),
   dueBefore: dateOnly.optional(),
 });
 export type BoardQuery = z.infer<typeof boardQuery>;
+/** What the board is filtered by, without the page. */
+export type BoardFilter = Omit<BoardQuery, 'limit' | 'offset'>;
 
 // --- studio setup ---------------------------------------------------------------------------
 
@@ -335,7 +338,8 @@ export type BoardCard = {
   stage: { id: number; name: string; status: StageStatus; hazards: HazardKey[]; waitUntil: string | null } | null;
   progress: Progress;
 };
-export type Board = { columns: { key: string; name: string; cards: BoardCard[] }[] };
+/** One page of the board's figures in their columns; `total` counts the figures of every page. */
+export type Board = { columns: { key: string; name: string; cards: BoardCard[] }[]; total: number; limit: number; offset: number };
 
 export type TemplateStageView = { key: string; name: string; position: number; defaultHours: number; waitHours: number; hazards: HazardKey[] };
 export type ListItem = { key: string; label: string };

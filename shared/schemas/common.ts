@@ -56,9 +56,24 @@ export const optionalText = (max: number) =>
     .optional()
     .transform((v) => (v === '' ? undefined : v));
 
-export const pageQuery = z.object({
-  limit: z.coerce.number().int().min(1).max(200).default(50),
-  offset: z.coerce.number().int().min(0).default(0),
+/** The most rows one page of any list holds. */
+export const MAX_PAGE_SIZE = 200;
+
+/** `limit` (page size, `size` unless asked, at most MAX_PAGE_SIZE) and `offset` of one page of a list. */
+export const pageParams = (size = 50) =>
+  z.object({
+    limit: z.coerce.number().int().min(1).max(MAX_PAGE_SIZE).default(size),
+    offset: z.coerce.number().int().min(0).max(1_000_000).default(0),
+  });
+export type PageParams = z.infer<ReturnType<typeof pageParams>>;
+
+/**
+ * Lists that answer a bare array (their shape from before paging): up to MAX_PAGE_SIZE rows unless asked
+ * for fewer, the count of all of them in the X-Total-Count header.
+ */
+export const arrayPageParams = pageParams(MAX_PAGE_SIZE);
+
+export const pageQuery = pageParams(50).extend({
   q: z.string().trim().max(200).optional(),
 });
 export type PageQuery = z.infer<typeof pageQuery>;

@@ -1,6 +1,7 @@
 // The paint rack, colour matches and reference-photo palettes: requests (zod) and responses.
 import { z } from 'zod';
 import { isHex, normalizeHex, type MatchBand } from '../color';
+import { arrayPageParams } from './common';
 
 export const paintTypes = ['primer', 'base', 'layer', 'wash', 'glaze', 'ink', 'metallic', 'tint', 'medium', 'varnish', 'solvent-wash', 'pigment'] as const;
 export type PaintType = (typeof paintTypes)[number];
@@ -93,12 +94,14 @@ export type UpdatePaintInput = z.infer<typeof updatePaintInput>;
 export const stockStates = ['ok', 'low', 'out'] as const;
 export type StockState = (typeof stockStates)[number];
 
-export const paintListQuery = z.object({
+export const paintListQuery = arrayPageParams.extend({
   q: z.string().trim().max(200).optional(),
   type: z.enum(paintTypes).optional(),
   stock: z.enum(['low', 'out', 'short']).optional(), // short: low or out
 });
 export type PaintListQuery = z.infer<typeof paintListQuery>;
+/** What the rack is filtered by, without the page. */
+export type PaintFilter = Omit<PaintListQuery, 'limit' | 'offset'>;
 
 export const nearestQuery = z.object({
   hex: hexColour,

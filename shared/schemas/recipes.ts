@@ -3,6 +3,7 @@
 import { z } from 'zod';
 import type { LadderStep } from '../color';
 import { hazardsOfTechniques, type HazardKey } from '../hazards';
+import { arrayPageParams } from './common';
 import { optionalHex, type PaintRef, type PaintType } from './paints';
 
 export const recipeTechniques = [
@@ -131,7 +132,7 @@ export const recipeInput = z.object({
 });
 export type RecipeInput = z.infer<typeof recipeInput>;
 
-export const recipeListQuery = z.object({ q: z.string().trim().max(200).optional() });
+export const recipeListQuery = arrayPageParams.extend({ q: z.string().trim().max(200).optional() });
 export type RecipeListQuery = z.infer<typeof recipeListQuery>;
 
 export const schemeEntryInput = z.object({

@@ -2,7 +2,7 @@
 // delivery if booked today", the timeline and the calendar feed. Requests (zod) and responses.
 import { z } from 'zod';
 import type { CommissionStatus } from '../commission-lifecycle';
-import { id, timeZone } from './common';
+import { id, pageParams, timeZone } from './common';
 import { timeRangeInput, weeklyHoursInput } from './capacity';
 
 const localDate = z.iso.date({ error: 'Use a date such as 2026-05-31.' });
@@ -34,7 +34,11 @@ export { timeRangeInput };
 // --- requests ----------------------------------------------------------------------------------
 
 /** The timeline's window: `weeks` ISO weeks starting with the week that holds `from` (default today). */
-export const scheduleQuery = z.object({
+/**
+ * And one page of the queue: `limit` commissions from `offset` (a client's page counts their own only).
+ * 25 by default, about what eight weeks of a small studio's bench hold.
+ */
+export const scheduleQuery = pageParams(25).extend({
   from: localDate.optional(),
   weeks: z.coerce.number().int().min(1, 'Show at least one week.').max(52, 'Show at most 52 weeks.').default(8),
 });
@@ -123,7 +127,12 @@ export type ScheduleView = {
   /** the timeline's axis */
   weeks: TimelineWeek[];
   painters: { id: number; name: string; weeklyHours: number }[];
+  /** one page of the queue, in queue order */
   commissions: ScheduledCommission[];
+  /** commissions in the whole queue (a client's: their own) */
+  total: number;
+  limit: number;
+  offset: number;
 };
 
 export type EarliestDeliveryView = {

@@ -1,4 +1,6 @@
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageRows } from '../../lib/page';
 
 export type ActivityRow = {
   id: number;
@@ -14,13 +16,15 @@ export function activityRepository(db: Db) {
     insert: (trx: Db, e: { studioId: number; commissionId: number | null; userId: number | null; action: string; detail: Record<string, unknown>; at: string }) =>
       trx('activity').insert({ studio_id: e.studioId, commission_id: e.commissionId, user_id: e.userId, action: e.action, detail: JSON.stringify(e.detail), at: e.at }),
     /** Newest first. */
-    list: (studioId: number, commissionId: number, limit: number): Promise<ActivityRow[]> =>
-      db('activity as a')
-        .leftJoin('users as u', 'u.id', 'a.user_id')
-        .where({ 'a.studio_id': studioId, 'a.commission_id': commissionId })
-        .orderBy([{ column: 'a.at', order: 'desc' }, { column: 'a.id', order: 'desc' }])
-        .limit(limit)
-        .select('a.id', 'a.at', 'a.user_id', 'u.name as user_name', 'a.action', 'a.detail'),
+    list: (studioId: number, commissionId: number, q: PageParams) =>
+      pageRows<ActivityRow>(
+        db('activity as a')
+          .leftJoin('users as u', 'u.id', 'a.user_id')
+          .where({ 'a.studio_id': studioId, 'a.commission_id': commissionId })
+          .orderBy([{ column: 'a.at', order: 'desc' }, { column: 'a.id', order: 'desc' }])
+          .select('a.id', 'a.at', 'a.user_id', 'u.name as user_name', 'a.action', 'a.detail'),
+        q,
+      ),
   };
 }
 

@@ -2,6 +2,8 @@ import { commissionStatusLabels, isCommissionStatus, stageStatusLabels, type Sta
 import type { ActivityEntry } from '../../../shared/schemas/commissions';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageOf } from '../../lib/page';
 import type { ActivityRepository, ActivityRow } from './activity.repository';
 
 export type ActivityInput = { studioId: number; commissionId: number; userId: number | null; action: string; detail?: Record<string, unknown> };
@@ -119,7 +121,11 @@ export function activityService(deps: { repo: ActivityRepository; clock: Clock }
     /** Records a change inside the transaction that makes it. */
     record: (trx: Db, e: ActivityInput) =>
       repo.insert(trx, { studioId: e.studioId, commissionId: e.commissionId, userId: e.userId, action: e.action, detail: e.detail ?? {}, at: iso(clock.now()) }),
-    list: async (studioId: number, commissionId: number) => (await repo.list(studioId, commissionId, 500)).map(view),
+    /** One page of a commission's log, newest first. */
+    async list(studioId: number, commissionId: number, q: PageParams) {
+      const { rows, total } = await repo.list(studioId, commissionId, q);
+      return pageOf(rows.map(view), total, q);
+    },
   };
 }
 

@@ -1,5 +1,7 @@
 import type { Approval, ApprovalStatus, ApprovalSubject } from '../../../shared/schemas/approvals';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageRows } from '../../lib/page';
 
 type ApprovalRow = {
   id: number;
@@ -44,11 +46,9 @@ export function approvalsRepository(db: Db) {
   return {
     commission: (studioId: number, commissionId: number, trx: Db = db) =>
       trx('commissions').where({ studio_id: studioId, id: commissionId }).first('id', 'client_id', 'title', 'status', 'status_before_hold') as Promise<CommissionRef | undefined>,
-    list: (studioId: number, commissionId: number) =>
-      base(studioId)
-        .where('a.commission_id', commissionId)
-        .orderBy([{ column: 'a.requested_at' }, { column: 'a.id' }])
-        .then((rows) => (rows as ApprovalRow[]).map(toApproval)),
+    /** One page of the requests, oldest first. */
+    list: (studioId: number, commissionId: number, q: PageParams) =>
+      pageRows<ApprovalRow>(base(studioId).where('a.commission_id', commissionId).orderBy([{ column: 'a.requested_at' }, { column: 'a.id' }]), q).then((p) => ({ rows: p.rows.map(toApproval), total: p.total })),
     get: (studioId: number, id: number, trx: Db = db) =>
       base(studioId, trx)
         .where('a.id', id)

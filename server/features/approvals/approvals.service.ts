@@ -2,6 +2,8 @@ import { canTransition, lockedStatuses, type CommissionStatus } from '../../../s
 import { approvalSubjectLabels, type ApproveInput, type RequestApprovalInput, type RequestChangesInput } from '../../../shared/schemas/approvals';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageOf } from '../../lib/page';
 import { AppError, errors } from '../../lib/errors';
 import type { Member } from '../../lib/policy';
 import { quote, type NoticesService } from '../notices/notices.service';
@@ -73,9 +75,10 @@ export function approvalsService(deps: { db: Db; repo: ApprovalsRepository; noti
   }
 
   return {
-    async list(m: Member, commissionId: number) {
+    async list(m: Member, commissionId: number, q: PageParams) {
       await commissionFor(m, commissionId);
-      return repo.list(m.studioId, commissionId);
+      const { rows, total } = await repo.list(m.studioId, commissionId, q);
+      return pageOf(rows, total, q);
     },
 
     async request(m: Member, user: Person, commissionId: number, input: RequestApprovalInput) {

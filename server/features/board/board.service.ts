@@ -4,8 +4,6 @@ import type { FiguresService } from '../figures/figures.service';
 import type { StudioSetupService } from '../studio-setup/studio-setup.service';
 import type { BoardFigureRow, BoardRepository } from './board.repository';
 
-const priorityRank = { high: 0, normal: 1, low: 2 } as const;
-
 /** The end of a wait from an earlier stage that still runs: the figure should not go on before it. */
 function waitingUntil(f: Figure, position: number, now: Date): string | null {
   let until: string | null = null;
@@ -21,16 +19,12 @@ export function boardService(deps: { repo: BoardRepository; figures: FiguresServ
   return {
     /** Columns are the template's stages in order, then any stage no longer in the template, then "done". */
     async get(studioId: number, q: BoardQuery): Promise<Board> {
-      const rows = await repo.figures(studioId, q);
+      const { rows, total } = await repo.figures(studioId, q);
       const byFigure = new Map<number, BoardFigureRow>(rows.map((r) => [r.figure_id, r]));
+      const place = new Map(rows.map((r, i) => [r.figure_id, i]));
+      // The page is read in the board's order; the figures' stages come back for the page's figures only.
       const views = rows.length ? (await figures.views(studioId, { figureIds: rows.map((r) => r.figure_id) }, false)).figures : [];
-      views.sort((a, b) => {
-        const ra = byFigure.get(a.id)!;
-        const rb = byFigure.get(b.id)!;
-        if (ra.due_date !== rb.due_date) return ra.due_date === null ? 1 : rb.due_date === null ? -1 : ra.due_date < rb.due_date ? -1 : 1;
-        if (ra.priority !== rb.priority) return priorityRank[ra.priority] - priorityRank[rb.priority];
-        return ra.commission_id - rb.commission_id || a.id - b.id;
-      });
+      views.sort((a, b) => place.get(a.id)! - place.get(b.id)!);
 
       const columns = new Map<string, { key: string; name: string; cards: BoardCard[] }>();
       for (const s of await setup.template(studioId)) columns.set(s.key, { key: s.key, name: s.name, cards: [] });
@@ -55,7 +49,7 @@ export function boardService(deps: { repo: BoardRepository; figures: FiguresServ
         if (!columns.has(current.key)) columns.set(current.key, { key: current.key, name: current.name, cards: [] });
         columns.get(current.key)!.cards.push(card);
       }
-      return { columns: [...columns.values(), { key: 'done', name: 'Done', cards: done }] };
+      return { columns: [...columns.values(), { key: 'done', name: 'Done', cards: done }], total, limit: q.limit, offset: q.offset };
     },
   };
 }

@@ -1,6 +1,7 @@
 import type { Comment } from '../../../shared/schemas/comments';
-import type { Role } from '../../../shared/schemas/common';
+import type { PageParams, Role } from '../../../shared/schemas/common';
 import type { Db } from '../../lib/db';
+import { pageRows } from '../../lib/page';
 
 type CommentRow = { id: number; user_id: number | null; user_name: string | null; role: Role | null; body: string; created_at: string };
 
@@ -23,11 +24,9 @@ export function commentsRepository(db: Db) {
   return {
     commission: (studioId: number, commissionId: number) =>
       db('commissions').where({ studio_id: studioId, id: commissionId }).first('id', 'client_id', 'title') as Promise<{ id: number; client_id: number; title: string } | undefined>,
-    list: (studioId: number, commissionId: number) =>
-      base(studioId)
-        .where('k.commission_id', commissionId)
-        .orderBy([{ column: 'k.created_at' }, { column: 'k.id' }])
-        .then((rows) => (rows as CommentRow[]).map(toComment)),
+    /** One page of the thread, oldest first. */
+    list: (studioId: number, commissionId: number, q: PageParams) =>
+      pageRows<CommentRow>(base(studioId).where('k.commission_id', commissionId).orderBy([{ column: 'k.created_at' }, { column: 'k.id' }]), q).then((p) => ({ rows: p.rows.map(toComment), total: p.total })),
     get: (studioId: number, id: number, trx: Db = db) =>
       base(studioId, trx)
         .where('k.id', id)

@@ -1,6 +1,8 @@
 import type { CreateCommentInput } from '../../../shared/schemas/comments';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageOf } from '../../lib/page';
 import { errors } from '../../lib/errors';
 import type { Member } from '../../lib/policy';
 import { quote, type NoticesService } from '../notices/notices.service';
@@ -17,9 +19,10 @@ export function commentsService(deps: { db: Db; repo: CommentsRepository; notice
   }
 
   return {
-    async list(m: Member, commissionId: number) {
+    async list(m: Member, commissionId: number, q: PageParams) {
       await commissionFor(m, commissionId);
-      return repo.list(m.studioId, commissionId);
+      const { rows, total } = await repo.list(m.studioId, commissionId, q);
+      return pageOf(rows, total, q);
     },
     /** A client's comment goes to the studio; the studio's to the client. */
     async create(m: Member, user: { id: number; name: string }, commissionId: number, input: CreateCommentInput) {

@@ -1,6 +1,7 @@
 import type { CommissionStatus, Priority } from '../../../shared/commission-lifecycle';
 import type { CommissionListQuery } from '../../../shared/schemas/commissions';
 import type { Db } from '../../lib/db';
+import { pageRows } from '../../lib/page';
 
 export type CommissionRow = {
   id: number;
@@ -61,23 +62,14 @@ export function commissionsRepository(db: Db) {
       trx('commissions').where({ studio_id: studioId }).max({ p: 'queue_position' }).first().then((r) => Number(r?.p ?? 0)),
 
     /**
-     * One page with each commission's figure count and stage totals, in one query (aggregates joined as
-     * subqueries), plus one count. `clientId` limits the list to one client's commissions.
+     * One page of commissions, newest first, with each one's figure count and stage totals: the page (one
+     * query), its count (one), then the figures and the stages of the page's commissions only, summed by
+     * commission (one grouped query each), so a request costs four queries however many stages the studio
+     * holds. The totals are summed on every read rather than kept as counters on the commission: stages
+     * change in many places (figures, quotes, the bench, time), and a sum over the page's own stages,
+     * read from the (studio_id, commission_id, status, estimate_minutes) index, cannot drift from them.
      */
     async list(studioId: number, q: CommissionListQuery & { onlyClientId?: number }) {
-      const stageTotals = db('stages')
-        .where('studio_id', studioId)
-        .groupBy('commission_id')
-        .select('commission_id')
-        .count({ stages: '*' })
-        .select(
-          db.raw("sum(case when status = 'skipped' then 1 else 0 end) as skipped"),
-          db.raw("sum(case when status = 'done' then 1 else 0 end) as done"),
-          db.raw("sum(case when status <> 'skipped' then estimate_minutes else 0 end) as minutes_total"),
-          db.raw("sum(case when status = 'done' then estimate_minutes else 0 end) as minutes_done"),
-        )
-        .as('st');
-      const figureTotals = db('figures').where('studio_id', studioId).groupBy('commission_id').select('commission_id').count({ figure_count: '*' }).sum({ model_count: 'quantity' }).as('ft');
       const filter = (qb: ReturnType<typeof base>) => {
         if (q.onlyClientId !== undefined) qb.where('c.client_id', q.onlyClientId);
         if (q.clientId) qb.where('c.client_id', q.clientId);
@@ -88,17 +80,50 @@ export function commissionsRepository(db: Db) {
         }
         return qb;
       };
-      const [rows, count] = await Promise.all([
+      const { rows, total } = await pageRows<CommissionRow>(
         filter(base(db, studioId))
-          .leftJoin(stageTotals, 'st.commission_id', 'c.id')
-          .leftJoin(figureTotals, 'ft.commission_id', 'c.id')
-          .select([...columns, 'ft.figure_count', 'ft.model_count', 'st.stages', 'st.skipped', 'st.done', 'st.minutes_total', 'st.minutes_done'])
-          .orderBy([{ column: 'c.created_at', order: 'desc' }, { column: 'c.id', order: 'desc' }])
-          .limit(q.limit)
-          .offset(q.offset),
-        filter(base(db, studioId)).count({ n: '*' }).first(),
-      ]);
-      return { rows: rows as CommissionListRow[], total: Number(count?.n ?? 0) };
+          .select(columns)
+          .orderBy([
+            { column: 'c.created_at', order: 'desc' },
+            { column: 'c.id', order: 'desc' },
+          ]),
+        q,
+      );
+      const ids = rows.map((r) => r.id);
+      const [stageRows, figureRows] = ids.length
+        ? await Promise.all([
+            db('stages')
+              .where('studio_id', studioId)
+              .whereIn('commission_id', ids)
+              .groupBy('commission_id')
+              .select('commission_id')
+              .count({ stages: '*' })
+              .select(
+                db.raw("sum(case when status = 'skipped' then 1 else 0 end) as skipped"),
+                db.raw("sum(case when status = 'done' then 1 else 0 end) as done"),
+                db.raw("sum(case when status <> 'skipped' then estimate_minutes else 0 end) as minutes_total"),
+                db.raw("sum(case when status = 'done' then estimate_minutes else 0 end) as minutes_done"),
+              ),
+            db('figures').where('studio_id', studioId).whereIn('commission_id', ids).groupBy('commission_id').select('commission_id').count({ figure_count: '*' }).sum({ model_count: 'quantity' }),
+          ])
+        : [[], []];
+      const stagesOf = new Map((stageRows as Record<string, number | string | null>[]).map((r) => [Number(r.commission_id), r]));
+      const figuresOf = new Map((figureRows as Record<string, number | string | null>[]).map((r) => [Number(r.commission_id), r]));
+      const listRows = rows.map((r): CommissionListRow => {
+        const st = stagesOf.get(r.id);
+        const ft = figuresOf.get(r.id);
+        return {
+          ...r,
+          figure_count: ft?.figure_count ?? 0,
+          model_count: ft?.model_count ?? 0,
+          stages: st?.stages ?? 0,
+          skipped: st?.skipped ?? 0,
+          done: st?.done ?? 0,
+          minutes_total: st?.minutes_total ?? 0,
+          minutes_done: st?.minutes_done ?? 0,
+        };
+      });
+      return { rows: listRows, total };
     },
   };
 }

@@ -1,6 +1,6 @@
 import type { Request } from 'express';
 import { z } from 'zod';
-import { id } from '../../../shared/schemas/common';
+import { arrayPageParams, id, type PageParams } from '../../../shared/schemas/common';
 import {
   commissionListQuery,
   createCommissionInput,
@@ -9,6 +9,7 @@ import {
   updateCommissionInput,
   type CommissionListQuery,
 } from '../../../shared/schemas/commissions';
+import { arrayPage } from '../../lib/page';
 import { member, user, type Allow } from '../../lib/policy';
 import { json, params, query, type RouteTable } from '../../lib/routes';
 import { validate } from '../../lib/validate';
@@ -25,5 +26,5 @@ export function commissionsRoutes(r: RouteTable, deps: { allow: Allow; commissio
   r.patch('/studios/:studioId/commissions/:commissionId', allow('owner'), validate({ params: commissionParams, body: updateCommissionInput }), json((req, res) => commissions.update(actor(req), params(res).commissionId, req.body)));
   r.patch('/studios/:studioId/commissions/:commissionId/scheme-notes', allow('owner', 'client'), validate({ params: commissionParams, body: schemeNotesInput }), json((req, res) => commissions.setSchemeNotes(actor(req), params(res).commissionId, req.body)));
   r.post('/studios/:studioId/commissions/:commissionId/transitions', allow('owner'), validate({ params: commissionParams, body: transitionInput }), json((req, res) => commissions.transition(actor(req), params(res).commissionId, req.body)));
-  r.get('/studios/:studioId/commissions/:commissionId/activity', allow('owner', 'painter'), validate({ params: commissionParams }), json((req, res) => commissions.activity(actor(req), params(res).commissionId)));
+  r.get('/studios/:studioId/commissions/:commissionId/activity', allow('owner', 'painter'), validate({ params: commissionParams, query: arrayPageParams }), json(async (req, res) => arrayPage(res, await commissions.activity(actor(req), params(res).commissionId, query<PageParams>(res)))));
 }

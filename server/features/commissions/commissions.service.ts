@@ -6,7 +6,7 @@ import {
   type CommissionStatus,
   type ProgressTotals,
 } from '../../../shared/commission-lifecycle';
-import type { Page } from '../../../shared/schemas/common';
+import type { Page, PageParams } from '../../../shared/schemas/common';
 import type {
   CommissionDetail,
   CommissionListQuery,
@@ -218,9 +218,9 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
       return true;
     },
 
-    async activity(actor: Actor, id: number) {
+    async activity(actor: Actor, id: number, q: PageParams) {
       await visible(actor, id);
-      return activity.list(actor.studioId, id);
+      return activity.list(actor.studioId, id, q);
     },
   };
 }

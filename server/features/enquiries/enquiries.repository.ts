@@ -73,19 +73,31 @@ export function enquiriesRepository(db: Db) {
         }
         return qb;
       };
-      const figures = db('enquiry_figures').where('studio_id', studioId).groupBy('enquiry_id').select('enquiry_id').count({ figure_count: '*' }).sum({ model_count: 'quantity' }).as('f');
-      const photos = db('enquiry_photos').where('studio_id', studioId).groupBy('enquiry_id').select('enquiry_id').count({ photo_count: '*' }).as('p');
       const [rows, count] = await Promise.all([
         filter(db('enquiries as e'))
-          .leftJoin(figures, 'f.enquiry_id', 'e.id')
-          .leftJoin(photos, 'p.enquiry_id', 'e.id')
-          .select('e.*', 'f.figure_count', 'f.model_count', 'p.photo_count')
+          .select('e.*')
           .orderBy([{ column: 'e.created_at', order: 'desc' }, { column: 'e.id', order: 'desc' }])
           .limit(q.limit)
           .offset(q.offset),
         filter(db('enquiries as e')).count({ n: '*' }).first(),
       ]);
-      return { rows: rows as EnquiryListRow[], total: Number(count?.n ?? 0) };
+      // Figure and photo counts of the page's enquiries only: one grouped query each, whatever the studio holds.
+      const ids = (rows as { id: number }[]).map((r) => r.id);
+      const [figures, photos] = ids.length
+        ? await Promise.all([
+            db('enquiry_figures').where('studio_id', studioId).whereIn('enquiry_id', ids).groupBy('enquiry_id').select('enquiry_id').count({ figure_count: '*' }).sum({ model_count: 'quantity' }),
+            db('enquiry_photos').where('studio_id', studioId).whereIn('enquiry_id', ids).groupBy('enquiry_id').select('enquiry_id').count({ photo_count: '*' }),
+          ])
+        : [[], []];
+      const figuresOf = new Map((figures as Record<string, unknown>[]).map((f) => [Number(f.enquiry_id), f]));
+      const photosOf = new Map((photos as Record<string, unknown>[]).map((p) => [Number(p.enquiry_id), p]));
+      const withCounts = (rows as Record<string, unknown>[]).map((r) => ({
+        ...r,
+        figure_count: figuresOf.get(Number(r.id))?.figure_count ?? 0,
+        model_count: figuresOf.get(Number(r.id))?.model_count ?? 0,
+        photo_count: photosOf.get(Number(r.id))?.photo_count ?? 0,
+      }));
+      return { rows: withCounts as EnquiryListRow[], total: Number(count?.n ?? 0) };
     },
     countNew: (studioId: number) => db('enquiries').where({ studio_id: studioId, status: 'new' }).count({ n: '*' }).first().then((r) => Number(r?.n ?? 0)),
 

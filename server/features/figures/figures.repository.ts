@@ -114,8 +114,10 @@ export function figuresRepository(db: Db) {
       const lq = trx('time_entries').where('studio_id', studioId).whereNotNull('ended_at').groupBy('stage_id').select('stage_id').sum({ minutes: 'minutes' });
       if (by.commissionIds) {
         fq.whereIn('f.commission_id', by.commissionIds);
-        sq.whereIn('s.commission_id', by.commissionIds);
-        lq.whereIn('commission_id', by.commissionIds);
+        // Commission first in the order and the grouping, so the (studio_id, commission_id) indexes answer
+        // even before the planner has statistics (by figure alone it walks every stage of the studio).
+        sq.whereIn('s.commission_id', by.commissionIds).clearOrder().orderBy([{ column: 's.commission_id' }, { column: 's.figure_id' }, { column: 's.position' }]);
+        lq.whereIn('commission_id', by.commissionIds).clearGroup().groupBy(['commission_id', 'stage_id']);
       }
       if (by.figureIds) {
         fq.whereIn('f.id', by.figureIds);

@@ -1,5 +1,6 @@
-import type { Role } from '../../../shared/schemas/common';
+import type { PageParams, Role } from '../../../shared/schemas/common';
 import type { Db } from '../../lib/db';
+import { pageRows } from '../../lib/page';
 
 export type InvitationRow = {
   id: number;
@@ -33,13 +34,18 @@ export function invitationsRepository(db: Db) {
     /** Revokes earlier pending invitations for the same person and role, so only the newest link works. */
     revokePending: (studioId: number, email: string, role: Role, now: string, trx: Db = db) =>
       trx('invitations').where({ studio_id: studioId, email, role }).whereNull('accepted_at').whereNull('revoked_at').update({ revoked_at: now }),
-    listPending: (studioId: number, now: string) =>
-      db<InvitationRow>('invitations')
-        .where({ studio_id: studioId })
-        .whereNull('accepted_at')
-        .whereNull('revoked_at')
-        .andWhere('expires_at', '>', now)
-        .orderBy('created_at', 'desc'),
+    /** One page of the invitations still open, newest first. */
+    listPending: (studioId: number, now: string, q: PageParams) =>
+      pageRows<InvitationRow>(
+        db('invitations')
+          .where({ studio_id: studioId })
+          .whereNull('accepted_at')
+          .whereNull('revoked_at')
+          .andWhere('expires_at', '>', now)
+          .select('*')
+          .orderBy([{ column: 'created_at', order: 'desc' }, { column: 'id', order: 'desc' }]),
+        q,
+      ),
     get: (studioId: number, id: number) => db<InvitationRow>('invitations').where({ studio_id: studioId, id }).first(),
     revoke: (studioId: number, id: number, now: string) =>
       db('invitations').where({ studio_id: studioId, id }).whereNull('accepted_at').whereNull('revoked_at').update({ revoked_at: now }),

@@ -1,8 +1,9 @@
 import type { AcceptInvitationInput } from '../../../shared/schemas/auth';
-import type { Role } from '../../../shared/schemas/common';
+import type { PageParams, Role } from '../../../shared/schemas/common';
 import { addMs, DAY, iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
 import { AppError, errors } from '../../lib/errors';
+import { pageOf } from '../../lib/page';
 import type { Mailer } from '../../lib/mail/mailer';
 import { templates } from '../../lib/mail/templates';
 import { hashToken, newToken } from '../../lib/tokens';
@@ -83,7 +84,10 @@ export function invitationsService(deps: {
       return issue(studioId, inviterId, c.email, 'client', c.id);
     },
 
-    listPending: (studioId: number) => repo.listPending(studioId, now()).then((rows) => rows.map(toInvitation)),
+    async listPending(studioId: number, q: PageParams) {
+      const { rows, total } = await repo.listPending(studioId, now(), q);
+      return pageOf(rows.map(toInvitation), total, q);
+    },
 
     async revoke(studioId: number, id: number) {
       if (!(await repo.get(studioId, id))) throw errors.notFound('That invitation');

@@ -1,5 +1,7 @@
-import { stockState, type CreatePaintInput, type Finish, type Paint, type PaintListQuery, type PaintRef, type PaintType, type UpdatePaintInput } from '../../../shared/schemas/paints';
+import { stockState, type CreatePaintInput, type Finish, type Paint, type PaintFilter, type PaintRef, type PaintType, type UpdatePaintInput } from '../../../shared/schemas/paints';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageRows } from '../../lib/page';
 
 export type PaintRow = {
   id: number;
@@ -69,10 +71,12 @@ export function paintsRepository(db: Db) {
       .where('p.studio_id', studioId)
       .select(
         'p.*',
-        trx('recipe_step_paints as sp').join('recipe_steps as s', 's.id', 'sp.step_id').whereRaw('sp.paint_id = p.id').countDistinct('s.recipe_id').as('recipe_count'),
+        // studio and paint, in that order: the (studio_id, paint_id) index of recipe_step_paints answers it
+        trx('recipe_step_paints as sp').join('recipe_steps as s', 's.id', 'sp.step_id').whereRaw('sp.studio_id = p.studio_id and sp.paint_id = p.id').countDistinct('s.recipe_id').as('recipe_count'),
       );
   return {
-    async list(studioId: number, q: PaintListQuery = {}) {
+    /** The paints that match the filter, by name; one page of them when `page` is given (the export takes all). */
+    async list(studioId: number, q: PaintFilter = {}, page?: PageParams) {
       const qb = base(studioId);
       if (q.q) {
         const like = escapeLike(q.q);
@@ -88,8 +92,10 @@ export function paintsRepository(db: Db) {
       if (q.stock === 'out') qb.where('p.stock', '<=', 0);
       if (q.stock === 'low') qb.where('p.stock', '>', 0).whereNotNull('p.low_stock_threshold').whereRaw('p.stock < p.low_stock_threshold');
       if (q.stock === 'short') qb.where((w) => w.where('p.stock', '<=', 0).orWhere((o) => o.whereNotNull('p.low_stock_threshold').whereRaw('p.stock < p.low_stock_threshold')));
-      const rows = (await qb.orderByRaw('lower(p.name), lower(p.maker), p.id')) as PaintRow[];
-      return rows.map(toPaint);
+      qb.orderByRaw('lower(p.name), lower(p.maker), p.id');
+      if (!page) return { items: ((await qb) as PaintRow[]).map(toPaint), total: null };
+      const { rows, total } = await pageRows<PaintRow>(qb, page);
+      return { items: rows.map(toPaint), total };
     },
     get: (studioId: number, id: number, trx: Db = db) =>
       base(studioId, trx)

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { id } from '../../../shared/schemas/common';
 import { createPaintInput, importPaintsInput, nearestQuery, paintListQuery, updatePaintInput, type NearestQuery, type PaintListQuery } from '../../../shared/schemas/paints';
+import { arrayPage } from '../../lib/page';
 import { member, type Allow } from '../../lib/policy';
 import { json, params, query, type RouteTable } from '../../lib/routes';
 import { validate } from '../../lib/validate';
@@ -13,7 +14,7 @@ const paintParams = z.object({ studioId: id, paintId: id });
 export function paintsRoutes(r: RouteTable, deps: { allow: Allow; paints: PaintsService }) {
   const { allow, paints } = deps;
   const staff = () => allow('owner', 'painter');
-  r.get('/studios/:studioId/paints', staff(), validate({ query: paintListQuery }), json((req, res) => paints.list(member(req).studioId, query<PaintListQuery>(res))));
+  r.get('/studios/:studioId/paints', staff(), validate({ query: paintListQuery }), json(async (req, res) => arrayPage(res, await paints.list(member(req).studioId, query<PaintListQuery>(res)))));
   r.post('/studios/:studioId/paints', staff(), validate({ body: createPaintInput }), json((req) => paints.create(member(req).studioId, req.body), 201));
   r.get('/studios/:studioId/paints/export', staff(), validate({ params: studioParams }), async (req, res) => {
     const csv = await paints.exportCsv(member(req).studioId);

@@ -11,6 +11,7 @@ import {
 } from '../../../shared/schemas/paints';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
+import { pageOf } from '../../lib/page';
 import { errors } from '../../lib/errors';
 import { parseOrThrow } from '../../lib/validate';
 import { parsePaintsCsv, paintsToCsv } from './paints.csv';
@@ -50,7 +51,10 @@ export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clo
   return {
     get,
     rack,
-    list: (studioId: number, q: PaintListQuery) => repo.list(studioId, q),
+    async list(studioId: number, q: PaintListQuery) {
+      const { items, total } = await repo.list(studioId, q, q);
+      return pageOf(items, total ?? 0, q);
+    },
     /** What recipes show of their paints, by id; ids not on this studio's rack are simply absent. */
     async refsByIds(studioId: number, ids: number[]) {
       return new Map((await repo.byIds(studioId, ids)).map((r) => [r.id, toPaintRef(r)]));
@@ -142,7 +146,7 @@ export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clo
     },
 
     async exportCsv(studioId: number) {
-      return paintsToCsv(await repo.list(studioId));
+      return paintsToCsv((await repo.list(studioId)).items);
     },
 
     async nearest(studioId: number, hex: string, k: number) {

@@ -1,6 +1,8 @@
 import type { Photo, PhotoKind, PhotoSize } from '../../../shared/schemas/photos';
 import { photoSizes } from '../../../shared/schemas/photos';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageRows } from '../../lib/page';
 import type { PhotoFormat } from '../../lib/images/photos';
 
 export type PhotoRow = {
@@ -63,10 +65,9 @@ export function photosRepository(db: Db) {
     },
     byIds: (studioId: number, ids: number[]) =>
       base(studioId).whereIn('p.id', ids).orderBy('p.id').then((rows) => rows as PhotoRow[]),
-    list: (studioId: number, commissionId: number, v: Visibility) =>
-      visible(base(studioId).where('p.commission_id', commissionId), v)
-        .orderBy([{ column: 'p.created_at' }, { column: 'p.id' }])
-        .then((rows) => rows as PhotoRow[]),
+    /** One page of the photos the viewer may see, oldest first. */
+    list: (studioId: number, commissionId: number, v: Visibility, q: PageParams) =>
+      pageRows<PhotoRow>(visible(base(studioId).where('p.commission_id', commissionId), v).orderBy([{ column: 'p.created_at' }, { column: 'p.id' }]), q),
     get: (studioId: number, id: number, trx: Db = db) =>
       base(studioId, trx)
         .where('p.id', id)

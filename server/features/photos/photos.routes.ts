@@ -1,10 +1,11 @@
 import { pipeline } from 'node:stream/promises';
 import type { RequestHandler } from 'express';
 import { z } from 'zod';
-import { id } from '../../../shared/schemas/common';
+import { arrayPageParams, id, type PageParams } from '../../../shared/schemas/common';
 import { photoFileQuery, photoSizes, updatePhotoInput, uploadPhotosFields, type PhotoSize } from '../../../shared/schemas/photos';
 import { errors } from '../../lib/errors';
 import { PHOTO_FILE_CSP } from '../../lib/images/photos';
+import { arrayPage } from '../../lib/page';
 import { member, user, type Allow } from '../../lib/policy';
 import { json, params, query, type RouteTable } from '../../lib/routes';
 import { photoUpload } from '../../lib/upload';
@@ -45,7 +46,7 @@ export function photosRoutes(r: RouteTable, deps: { allow: Allow; photos: Photos
     await pipeline(file.stream, res).catch((err) => req.log.warn({ err }, 'photo download cut off'));
   };
 
-  r.get('/studios/:studioId/commissions/:commissionId/photos', allow('owner', 'painter', 'client'), validate({ params: commissionParams }), json((req, res) => photos.list(member(req), user(req).id, params(res).commissionId)));
+  r.get('/studios/:studioId/commissions/:commissionId/photos', allow('owner', 'painter', 'client'), validate({ params: commissionParams, query: arrayPageParams }), json(async (req, res) => arrayPage(res, await photos.list(member(req), user(req).id, params(res).commissionId, query<PageParams>(res)))));
   r.post('/studios/:studioId/commissions/:commissionId/photos', allow('owner', 'painter', 'client'), validate({ params: commissionParams }), commissionGate, photoUpload('photos'), validate({ body: uploadPhotosFields }), json((req, res) => photos.upload(member(req), user(req), params(res).commissionId, req.body, (req.files as Express.Multer.File[] | undefined) ?? []), 201));
   r.get('/studios/:studioId/photos/:photoId/:size', allow('owner', 'painter', 'client'), validate({ params: fileParams, query: photoFileQuery }), serve);
   r.patch('/studios/:studioId/photos/:photoId', allow('owner', 'painter'), validate({ params: photoParams, body: updatePhotoInput }), json((req, res) => photos.update(member(req), user(req), params(res).photoId, req.body)));

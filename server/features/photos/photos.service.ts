@@ -2,6 +2,8 @@ import crypto from 'node:crypto';
 import type { PhotoSize, UpdatePhotoInput, UploadPhotosFields } from '../../../shared/schemas/photos';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageOf } from '../../lib/page';
 import { errors } from '../../lib/errors';
 import { contentTypes, extensions, inspectPhoto, processPhoto, type PhotoFormat, type ProcessedPhoto } from '../../lib/images/photos';
 import type { Member } from '../../lib/policy';
@@ -72,9 +74,10 @@ export function photosService(deps: { db: Db; repo: PhotosRepository; storage: F
   return {
     commissionFor,
 
-    async list(m: Member, userId: number, commissionId: number) {
+    async list(m: Member, userId: number, commissionId: number, q: PageParams) {
       await commissionFor(m, commissionId);
-      return (await repo.list(m.studioId, commissionId, visibilityFor(m, userId))).map(toPhoto);
+      const { rows, total } = await repo.list(m.studioId, commissionId, visibilityFor(m, userId), q);
+      return pageOf(rows.map(toPhoto), total, q);
     },
 
     /**

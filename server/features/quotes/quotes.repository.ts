@@ -66,6 +66,12 @@ const columns = [
   'q.updated_at',
 ];
 
+/** What a list row needs: no input, table or result (the priced JSON stays unread in lists). */
+export type QuoteListRow = Omit<QuoteRow, 'input' | 'price_table' | 'result'>;
+const listColumns = columns.filter((c) => !c.endsWith('_json'));
+const toListRow = (r: Record<string, unknown>): QuoteListRow =>
+  ({ ...r, total: Number(r.total), deposit: Number(r.deposit), balance: Number(r.balance), show_hours: Boolean(r.show_hours) }) as QuoteListRow;
+
 function toRow(r: Record<string, unknown>): QuoteRow {
   const { input_json, price_table_json, result_json, ...rest } = r;
   return {
@@ -127,6 +133,9 @@ export function quotesRepository(db: Db) {
       if (from) qb.whereIn('status', from);
       return (await qb.update(patch)) > 0;
     },
+    /** Sent quotes among `ids` become expired (the list's page expires what ran out, in one update). */
+    expire: (trx: Db, studioId: number, ids: number[], at: string) =>
+      trx('quotes').where({ studio_id: studioId, status: 'sent' }).whereIn('id', ids).update({ status: 'expired', updated_at: at }),
     supersedeOthers: (trx: Db, studioId: number, commissionId: number, exceptId: number, statuses: QuoteStatus[], at: string) =>
       trx('quotes').where({ studio_id: studioId, commission_id: commissionId }).whereNot('id', exceptId).whereIn('status', statuses).update({ status: 'superseded', updated_at: at }),
 
@@ -144,13 +153,13 @@ export function quotesRepository(db: Db) {
       };
       const [rows, count] = await Promise.all([
         filter(base(db, studioId))
-          .select(columns)
+          .select(listColumns)
           .orderBy([{ column: 'q.created_at', order: 'desc' }, { column: 'q.id', order: 'desc' }])
           .limit(q.limit)
           .offset(q.offset),
         filter(base(db, studioId)).count({ n: '*' }).first(),
       ]);
-      return { rows: rows.map(toRow), total: Number(count?.n ?? 0) };
+      return { rows: rows.map(toListRow), total: Number(count?.n ?? 0) };
     },
 
     /** Sent quotes past their validity in any studio, with the studio's zone (the expiry job). */

@@ -28,7 +28,7 @@ import type { Member } from '../../lib/policy';
 import type { ActivityService } from '../activity/activity.service';
 import type { InvoicesService } from '../invoices/invoices.service';
 import type { PriceTableService } from '../price-table/price-table.service';
-import type { QuoteRow, QuotesRepository } from './quotes.repository';
+import type { QuoteListRow, QuoteRow, QuotesRepository } from './quotes.repository';
 
 export type Actor = Member & { userId: number };
 type Person = { id: number; name: string };
@@ -150,7 +150,7 @@ export function quotesService(deps: QuotesDeps) {
     };
   }
 
-  const summary = (r: QuoteRow): QuoteSummary => ({
+  const summary = (r: QuoteListRow): QuoteSummary => ({
     id: r.id,
     commissionId: r.commission_id,
     commissionTitle: r.commission_title,
@@ -231,7 +231,12 @@ export function quotesService(deps: QuotesDeps) {
     async list(actor: Member, q: QuoteListQuery): Promise<Page<QuoteSummary>> {
       const client = actor.role === 'client';
       const { rows, total } = await repo.list(actor.studioId, { ...q, onlyClientId: client ? (actor.clientId ?? -1) : undefined, hideDrafts: client });
-      const fresh = await Promise.all(rows.map((r) => expireIfDue(r)));
+      // One look at the studio's date for the whole page, and one update for the quotes on it that ran out.
+      const sent = rows.filter((r) => r.status === 'sent');
+      const today = sent.length ? await priceTables.today(actor.studioId) : '';
+      const due = sent.filter((r) => r.valid_until < today).map((r) => r.id);
+      if (due.length) await repo.expire(db, actor.studioId, due, now());
+      const fresh = rows.map((r) => (due.includes(r.id) ? { ...r, status: 'expired' as const } : r));
       return { items: fresh.map(summary), total, limit: q.limit, offset: q.offset };
     },
 

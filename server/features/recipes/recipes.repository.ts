@@ -1,5 +1,6 @@
 import type { Diluent, RecipeInput, RecipeListQuery, RecipeTechnique } from '../../../shared/schemas/recipes';
 import type { Db } from '../../lib/db';
+import { pageRows } from '../../lib/page';
 
 export type RecipeRow = {
   id: number;
@@ -39,7 +40,8 @@ export function recipesRepository(db: Db) {
   const base = (studioId: number, trx: Db = db) =>
     trx('recipes as r')
       .where('r.studio_id', studioId)
-      .select('r.*', trx('schemes as sc').whereRaw('sc.recipe_id = r.id').count('*').as('scheme_count'));
+      // studio and recipe, in that order: the (studio_id, recipe_id) index of schemes answers the count
+      .select('r.*', trx('schemes as sc').whereRaw('sc.studio_id = r.studio_id and sc.recipe_id = r.id').count('*').as('scheme_count'));
 
   async function insertSteps(trx: Db, studioId: number, recipeId: number, input: RecipeInput) {
     for (const [position, s] of input.steps.entries()) {
@@ -67,10 +69,11 @@ export function recipesRepository(db: Db) {
   }
 
   return {
-    list(studioId: number, q: RecipeListQuery = {}) {
+    /** One page of the recipes, by name. */
+    list(studioId: number, q: RecipeListQuery) {
       const qb = base(studioId);
       if (q.q) qb.whereRaw("lower(r.name) like ? escape '\\'", [escapeLike(q.q)]);
-      return qb.orderByRaw('lower(r.name), r.id').then((rows) => rows as RecipeRow[]);
+      return pageRows<RecipeRow>(qb.orderByRaw('lower(r.name), r.id'), q);
     },
     get: (studioId: number, id: number, trx: Db = db) =>
       base(studioId, trx)

@@ -14,6 +14,7 @@ import {
 } from '../../../shared/schemas/recipes';
 import { iso, type Clock } from '../../lib/clock';
 import { errors } from '../../lib/errors';
+import { pageOf } from '../../lib/page';
 import type { PaintsService } from '../paints/paints.service';
 import type { RecipeRow, RecipesRepository, StepPaintRow, StepRow } from './recipes.repository';
 
@@ -121,7 +122,8 @@ export function recipesService(deps: { repo: RecipesRepository; paints: Pick<Pai
     hydrate,
     summarise,
     async list(studioId: number, q: RecipeListQuery) {
-      return (await hydrate(studioId, await repo.list(studioId, q))).map(summarise);
+      const { rows, total } = await repo.list(studioId, q);
+      return pageOf((await hydrate(studioId, rows)).map(summarise), total, q);
     },
     /** Summaries of the given recipes, by id (for schemes). */
     async summaries(studioId: number, ids: number[]) {

@@ -53,19 +53,33 @@ function stageWork(s: WorkStageRow, loggedMinutes: number, now: string): StageWo
 
 type Work = { figures: WorkFigureRow[]; stages: WorkStageRow[]; logged: Map<number, number> };
 
-function commissionWork(c: Pick<QueueRow, 'id' | 'due_date'>, work: Work, now: string): CommissionWork {
-  return {
+/** Rows grouped by a key, in their order: one pass, so a long queue costs no more than its rows. */
+function groupBy<T>(rows: T[], key: (r: T) => number) {
+  const out = new Map<number, T[]>();
+  for (const r of rows) {
+    const k = key(r);
+    const list = out.get(k);
+    if (list) list.push(r);
+    else out.set(k, [r]);
+  }
+  return out;
+}
+
+function workOf(cs: Pick<QueueRow, 'id' | 'due_date'>[], work: Work, now: string): CommissionWork[] {
+  const figuresOf = groupBy(work.figures, (f) => f.commission_id);
+  const stagesOf = groupBy(work.stages, (s) => s.figure_id);
+  return cs.map((c) => ({
     id: c.id,
     dueDate: c.due_date,
-    figures: work.figures
-      .filter((f) => f.commission_id === c.id)
-      .map((f) => ({
-        id: f.id,
-        painterId: f.painter_id,
-        stages: work.stages.filter((s) => s.figure_id === f.id).map((s) => stageWork(s, work.logged.get(s.id) ?? 0, now)),
-      })),
-  };
+    figures: (figuresOf.get(c.id) ?? []).map((f) => ({
+      id: f.id,
+      painterId: f.painter_id,
+      stages: (stagesOf.get(f.id) ?? []).map((s) => stageWork(s, work.logged.get(s.id) ?? 0, now)),
+    })),
+  }));
 }
+
+const commissionWork = (c: Pick<QueueRow, 'id' | 'due_date'>, work: Work, now: string) => workOf([c], work, now)[0];
 
 export type StudioForecast = {
   input: ForecastInput;
@@ -80,18 +94,24 @@ export type StudioForecast = {
 export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capacity: CapacityService; clock: Clock }) {
   const { db, repo, capacity, clock } = deps;
 
-  /** Reads the queue, the work left and the painters' time from the database and runs the forecast. */
-  async function run(studioId: number): Promise<StudioForecast> {
+  /**
+   * Reads the queue, the work left and the painters' time from the database and runs the forecast.
+   * `through` (a count) stops the queue there: the forecast books commissions in queue order, so those
+   * after a place never change where the ones before it land, and a page of the timeline needs only the
+   * work up to its last commission. `queueLength` is the whole queue's length either way.
+   */
+  async function run(studioId: number, opts: { through?: (queue: QueueRow[]) => number } = {}): Promise<StudioForecast & { queueLength: number }> {
     const nowDate = clock.now();
     const now = iso(nowDate);
-    const [queue, cap] = await Promise.all([repo.queue(studioId), capacity.forForecast(studioId)]);
+    const [whole, cap] = await Promise.all([repo.queue(studioId), capacity.forForecast(studioId)]);
+    const queue = opts.through ? whole.slice(0, opts.through(whole)) : whole;
     const work = await repo.work(studioId, queue.map((c) => c.id));
     const input: ForecastInput = {
       timeZone: cap.timeZone,
       now,
       painters: cap.painters.map(({ id, hours, daysOff }) => ({ id, hours, daysOff })),
       closedDays: cap.closedDays,
-      queue: queue.map((c) => commissionWork(c, work, now)),
+      queue: workOf(queue, work, now),
     };
     // The database is ours, but a bad row (a malformed date) should fail here with a clear cause.
     const checked = forecastInput.safeParse(input);
@@ -107,6 +127,7 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
       work,
       painters: cap.painters.map((p) => ({ id: p.id, name: p.name, weeklyHours: Math.round(weeklyHours(p) * 100) / 100 })),
       names,
+      queueLength: whole.length,
     };
   }
 
@@ -114,11 +135,13 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
     return minutesToHours(Math.round(stages.reduce((n, s) => n + s.remainingHours * HOUR_MIN, 0)));
   }
 
-  /** The forecast of each commission joined with its title, client, figures and place in the queue. */
-  function describe(sf: StudioForecast, forClient: boolean): ScheduledCommission[] {
+  /** The forecast of each commission (of those at the places `only`, if given) joined with its title, client, figures and place in the queue. */
+  function describe(sf: StudioForecast, forClient: boolean, only?: number[]): ScheduledCommission[] {
     const stageNames = new Map(sf.work.stages.map((s) => [s.id, s.name]));
     const figureRows = new Map(sf.work.figures.map((f) => [f.id, f]));
-    return sf.forecast.commissions.map((fc, i) => {
+    const places = only ?? sf.forecast.commissions.map((_, i) => i);
+    return places.map((i) => {
+      const fc = sf.forecast.commissions[i];
       const row = sf.queue[i];
       const work = sf.input.queue[i];
       const figures: ScheduledFigure[] = fc.figures.map((ff, j) => {
@@ -160,12 +183,24 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
     });
   }
 
+  /**
+   * One page of the timeline: the studio's queue from `offset`, or for a client their own commissions
+   * from `offset` (nothing of anyone else's). The forecast runs up to the page's last commission only.
+   */
   async function view(actor: Actor, q: ScheduleQuery): Promise<ScheduleView> {
-    const sf = await run(actor.studioId);
     const forClient = actor.role === 'client';
-    let commissions = describe(sf, forClient);
-    // A client sees where their own commissions stand, nothing of anyone else's.
-    if (forClient) commissions = commissions.filter((c) => c.client.id === actor.clientId);
+    const mine = (queue: QueueRow[]) => queue.flatMap((c, i) => (!forClient || c.client_id === actor.clientId ? [i] : []));
+    let places: number[] = [];
+    let total = 0;
+    const sf = await run(actor.studioId, {
+      through: (queue) => {
+        const all = mine(queue);
+        total = all.length;
+        places = all.slice(q.offset, q.offset + q.limit);
+        return places.length ? places[places.length - 1] + 1 : 0;
+      },
+    });
+    const commissions = describe(sf, forClient, places);
     return {
       timeZone: sf.input.timeZone,
       now: sf.input.now,
@@ -173,6 +208,9 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
       weeks: timelineWeeks(q.from ?? sf.today, q.weeks),
       painters: forClient ? [] : sf.painters,
       commissions: forClient ? commissions.map((c) => ({ ...c, queuePosition: null })) : commissions,
+      total,
+      limit: q.limit,
+      offset: q.offset,
     };
   }
 
@@ -207,7 +245,7 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
         }
         await repo.setOrder(trx, actor.studioId, input.commissionIds);
       });
-      return view(actor, { weeks: 8 });
+      return view(actor, { weeks: 8, limit: 25, offset: 0 });
     },
 
     /** "If booked today": the projected finish of this work added at the end of the queue now. */

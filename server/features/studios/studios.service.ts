@@ -1,8 +1,9 @@
-import type { Role } from '../../../shared/schemas/common';
+import type { PageParams, Role } from '../../../shared/schemas/common';
 import type { UpdateStudioInput } from '../../../shared/schemas/studios';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
+import { pageOf } from '../../lib/page';
 import { slugify } from '../../lib/tokens';
 import type { StudiosRepository } from './studios.repository';
 
@@ -48,7 +49,10 @@ export function studiosService(deps: { db: Db; repo: StudiosRepository; clock: C
       if (Object.keys(patch).length) await repo.updateStudio(studioId, patch);
       return this.get(studioId, role);
     },
-    members: (studioId: number) => repo.listMembers(studioId),
+    async members(studioId: number, q: PageParams) {
+      const { rows, total } = await repo.listMembers(studioId, q);
+      return pageOf(rows, total, q);
+    },
     async removeMember(studioId: number, userId: number) {
       await db.transaction(async (trx) => {
         const m = await repo.findMember(studioId, userId, trx);

@@ -1,5 +1,7 @@
 import type { CommissionStatus } from '../../../shared/commission-lifecycle';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageRows } from '../../lib/page';
 
 export type TimeRow = {
   id: number;
@@ -49,8 +51,9 @@ export function timeRepository(db: Db) {
       .join('commissions as c', 'c.id', 't.commission_id')
       .select(columns);
   return {
-    listForStage: (studioId: number, stageId: number) =>
-      base(db).where({ 't.studio_id': studioId, 't.stage_id': stageId }).orderBy([{ column: 't.started_at' }, { column: 't.id' }]) as Promise<TimeRow[]>,
+    /** One page of a stage's time, oldest first. */
+    listForStage: (studioId: number, stageId: number, q: PageParams) =>
+      pageRows<TimeRow>(base(db).where({ 't.studio_id': studioId, 't.stage_id': stageId }).orderBy([{ column: 't.started_at' }, { column: 't.id' }]), q),
     get: (studioId: number, id: number, trx: Db = db) => base(trx).where({ 't.studio_id': studioId, 't.id': id }).first() as Promise<TimeRow | undefined>,
     /** Every running timer of a person, in any studio (one runs at a time; starting another stops these). */
     runningOf: (userId: number, trx: Db = db) => base(trx).where('t.user_id', userId).whereNull('t.ended_at') as Promise<TimeRow[]>,

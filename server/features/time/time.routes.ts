@@ -1,9 +1,10 @@
 import type { Request } from 'express';
 import { z } from 'zod';
-import { id } from '../../../shared/schemas/common';
+import { arrayPageParams, id, type PageParams } from '../../../shared/schemas/common';
 import { manualTimeInput, updateTimeInput } from '../../../shared/schemas/commissions';
+import { arrayPage } from '../../lib/page';
 import { member, user, type Allow } from '../../lib/policy';
-import { json, params, type RouteTable } from '../../lib/routes';
+import { json, params, query, type RouteTable } from '../../lib/routes';
 import { validate } from '../../lib/validate';
 import type { TimeService } from './time.service';
 
@@ -13,7 +14,7 @@ const actor = (req: Request) => ({ ...member(req), userId: user(req).id });
 
 export function timeRoutes(r: RouteTable, deps: { allow: Allow; time: TimeService }) {
   const { allow, time } = deps;
-  r.get('/studios/:studioId/stages/:stageId/time', allow('owner', 'painter'), validate({ params: stageParams }), json((req, res) => time.listForStage(actor(req), params(res).stageId)));
+  r.get('/studios/:studioId/stages/:stageId/time', allow('owner', 'painter'), validate({ params: stageParams, query: arrayPageParams }), json(async (req, res) => arrayPage(res, await time.listForStage(actor(req), params(res).stageId, query<PageParams>(res)))));
   r.post('/studios/:studioId/stages/:stageId/time', allow('owner', 'painter'), validate({ params: stageParams, body: manualTimeInput }), json((req, res) => time.addManual(actor(req), params(res).stageId, req.body), 201));
   r.post('/studios/:studioId/stages/:stageId/timer', allow('owner', 'painter'), validate({ params: stageParams }), json((req, res) => time.start(actor(req), params(res).stageId), 201));
   r.get('/studios/:studioId/timer', allow('owner', 'painter'), json((req) => time.running(actor(req))));

@@ -3,6 +3,8 @@ import { hoursToMinutes, minutesToHours } from '../../../shared/commission-lifec
 import type { ManualTimeInput, RunningTimer, TimeEntry, UpdateTimeInput } from '../../../shared/schemas/commissions';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
+import type { PageParams } from '../../../shared/schemas/common';
+import { pageOf } from '../../lib/page';
 import { errors } from '../../lib/errors';
 import type { ActivityService } from '../activity/activity.service';
 import { assertOpen, type Actor, type FiguresService } from '../figures/figures.service';
@@ -72,9 +74,10 @@ export function timeService(deps: { db: Db; repo: TimeRepository; figures: Figur
   }
 
   return {
-    async listForStage(actor: Actor, stageId: number) {
+    async listForStage(actor: Actor, stageId: number, q: PageParams) {
       await figures.stageContext(actor.studioId, stageId);
-      return (await repo.listForStage(actor.studioId, stageId)).map(toEntry);
+      const { rows, total } = await repo.listForStage(actor.studioId, stageId, q);
+      return pageOf(rows.map(toEntry), total, q);
     },
 
     async addManual(actor: Actor, stageId: number, input: ManualTimeInput) {

@@ -13,6 +13,7 @@ function moveCard(board: Board, figureId: number): Board {
   if (from < 0 || from >= board.columns.length - 1) return board;
   const card = board.columns[from].cards.find((k) => k.figureId === figureId)!;
   return {
+    ...board,
     columns: board.columns.map((c, i) =>
       i === from ? { ...c, cards: c.cards.filter((k) => k.figureId !== figureId) } : i === from + 1 ? { ...c, cards: [...c.cards, card] } : c,
     ),

@@ -15,7 +15,7 @@ import {
   type KeyboardCoordinateGetter,
 } from '@dnd-kit/core';
 import { Brush } from 'lucide-react';
-import type { BoardCard, BoardQuery } from '../../../../shared/schemas/commissions';
+import type { BoardCard, BoardFilter } from '../../../../shared/schemas/commissions';
 import { Button } from '../../../components/ui/button';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { ErrorNote } from '../../../components/ui/error-note';
@@ -41,7 +41,7 @@ const collision: CollisionDetection = (args) => {
 export function BenchBoardRoute({ painters = [], cardTools }: { painters?: Person[]; cardTools?: (card: BoardCard) => ReactNode }) {
   const { studioId, timezone, role, userId } = useStudioScope();
   const [params, setParams] = useSearchParams();
-  const filter: BoardQuery = {
+  const filter: BoardFilter = {
     painterId: Number(params.get('painter')) || undefined,
     commissionId: Number(params.get('commission')) || undefined,
     dueBefore: params.get('due') || undefined,

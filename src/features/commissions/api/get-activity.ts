@@ -1,9 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { ActivityEntry } from '../../../../shared/schemas/commissions';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 export function getActivity(studioId: number, commissionId: number, signal?: AbortSignal): Promise<ActivityEntry[]> {
-  return api<ActivityEntry[]>(`/api/studios/${studioId}/commissions/${commissionId}/activity`, { signal });
+  // The newest 500 entries, as before the log was paged.
+  return allPages<ActivityEntry>(`/api/studios/${studioId}/commissions/${commissionId}/activity`, { signal, max: 500 });
 }
 
 export function activityQueryOptions(studioId: number, commissionId: number) {

@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Approval } from '../../../../shared/schemas/approvals';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 export function getApprovals(studioId: number, commissionId: number, signal?: AbortSignal): Promise<Approval[]> {
-  return api<Approval[]>(`/api/studios/${studioId}/commissions/${commissionId}/approvals`, { signal });
+  return allPages<Approval>(`/api/studios/${studioId}/commissions/${commissionId}/approvals`, { signal });
 }
 
 export function approvalsQueryOptions(studioId: number, commissionId: number) {

@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Comment } from '../../../../shared/schemas/comments';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 export function getComments(studioId: number, commissionId: number, signal?: AbortSignal): Promise<Comment[]> {
-  return api<Comment[]>(`/api/studios/${studioId}/commissions/${commissionId}/comments`, { signal });
+  return allPages<Comment>(`/api/studios/${studioId}/commissions/${commissionId}/comments`, { signal });
 }
 
 export function commentsQueryOptions(studioId: number, commissionId: number) {

@@ -1,7 +1,7 @@
 import { useEffect, useState } from 'react';
 import { useSearchParams } from 'react-router-dom';
 import { Download, FileUp, Palette, Plus, Search } from 'lucide-react';
-import { paintTypeLabels, paintTypes, type PaintListQuery, type PaintType } from '../../../../shared/schemas/paints';
+import { paintTypeLabels, paintTypes, type PaintFilter, type PaintType } from '../../../../shared/schemas/paints';
 import { Button, ButtonLink, buttonClasses } from '../../../components/ui/button';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { ErrorNote } from '../../../components/ui/error-note';
@@ -53,7 +53,7 @@ export function PaintsListRoute() {
     // eslint-disable-next-line react-hooks/exhaustive-deps
   }, [typed, q]);
 
-  const filter: PaintListQuery = { q: q || undefined, type, stock };
+  const filter: PaintFilter = { q: q || undefined, type, stock };
   const paints = usePaints(studioId, filter);
   const filtered = Boolean(q || type || stock);
 

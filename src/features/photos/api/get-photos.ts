@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Photo } from '../../../../shared/schemas/photos';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 export function getPhotos(studioId: number, commissionId: number, signal?: AbortSignal): Promise<Photo[]> {
-  return api<Photo[]>(`/api/studios/${studioId}/commissions/${commissionId}/photos`, { signal });
+  return allPages<Photo>(`/api/studios/${studioId}/commissions/${commissionId}/photos`, { signal });
 }
 
 export function photosQueryOptions(studioId: number, commissionId: number) {

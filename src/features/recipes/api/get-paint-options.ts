@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Paint } from '../../../../shared/schemas/paints';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 /** The whole rack, for choosing a step's paints. */
 export function getPaintOptions(studioId: number, signal?: AbortSignal): Promise<Paint[]> {
-  return api<Paint[]>(`/api/studios/${studioId}/paints`, { signal });
+  return allPages<Paint>(`/api/studios/${studioId}/paints`, { signal });
 }
 
 export function paintOptionsQueryOptions(studioId: number) {

@@ -1,9 +1,9 @@
 import { keepPreviousData, queryOptions, useQuery } from '@tanstack/react-query';
 import type { RecipeSummary } from '../../../../shared/schemas/recipes';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 export function getRecipes(studioId: number, q: string | undefined, signal?: AbortSignal): Promise<RecipeSummary[]> {
-  return api<RecipeSummary[]>(`/api/studios/${studioId}/recipes`, { query: { q }, signal });
+  return allPages<RecipeSummary>(`/api/studios/${studioId}/recipes`, { query: { q }, signal });
 }
 
 export function recipesQueryOptions(studioId: number, q?: string) {

@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { RecipeSummary } from '../../../../shared/schemas/recipes';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 /** All the studio's recipes, to choose one for an area of the scheme. */
 export function getRecipeOptions(studioId: number, signal?: AbortSignal): Promise<RecipeSummary[]> {
-  return api<RecipeSummary[]>(`/api/studios/${studioId}/recipes`, { signal });
+  return allPages<RecipeSummary>(`/api/studios/${studioId}/recipes`, { signal });
 }
 
 export function recipeOptionsQueryOptions(studioId: number) {

@@ -1,10 +1,10 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Photo } from '../../../../shared/schemas/photos';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 /** The commission's reference photos, to open one and match its colours against the rack. */
 export function getReferencePhotos(studioId: number, commissionId: number, signal?: AbortSignal): Promise<Photo[]> {
-  return api<Photo[]>(`/api/studios/${studioId}/commissions/${commissionId}/photos`, { signal }).then((all) => all.filter((p) => p.kind === 'reference'));
+  return allPages<Photo>(`/api/studios/${studioId}/commissions/${commissionId}/photos`, { signal }).then((all) => all.filter((p) => p.kind === 'reference'));
 }
 
 export function referencePhotosQueryOptions(studioId: number, commissionId: number) {

@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Invitation } from '../../../../shared/schemas/studios';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 export function getInvitations(studioId: number, signal?: AbortSignal): Promise<Invitation[]> {
-  return api<Invitation[]>(`/api/studios/${studioId}/invitations`, { signal });
+  return allPages<Invitation>(`/api/studios/${studioId}/invitations`, { signal });
 }
 
 export function invitationsQueryOptions(studioId: number) {

@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { Member } from '../../../../shared/schemas/studios';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 export function getMembers(studioId: number, signal?: AbortSignal): Promise<Member[]> {
-  return api<Member[]>(`/api/studios/${studioId}/members`, { signal });
+  return allPages<Member>(`/api/studios/${studioId}/members`, { signal });
 }
 
 export function membersQueryOptions(studioId: number) {

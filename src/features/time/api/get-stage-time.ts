@@ -1,9 +1,9 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import type { TimeEntry } from '../../../../shared/schemas/commissions';
-import { api } from '../../../lib/api-client';
+import { allPages } from '../../../lib/all-pages';
 
 export function getStageTime(studioId: number, stageId: number, signal?: AbortSignal): Promise<TimeEntry[]> {
-  return api<TimeEntry[]>(`/api/studios/${studioId}/stages/${stageId}/time`, { signal });
+  return allPages<TimeEntry>(`/api/studios/${studioId}/stages/${stageId}/time`, { signal });
 }
 
 export function stageTimeQueryOptions(studioId: number, stageId: number) {
