@@ -332,6 +332,37 @@ describe('sign-in throttling, through an invitation', () => {
   });
 });
 
+describe('account enumeration', () => {
+  it('a wrong password and an unknown address take about as long (bcrypt at the accounts\' own cost both ways)', async () => {
+    // cost 12, as in production: the unknown address used to be compared against a cost-10 hash, four times faster
+    const timed = await startTestApp({ bcryptRounds: 12 });
+    try {
+      await signUp(timed, { email: 'timed@enum.test' });
+      const once = async (email: string) => {
+        const c = new Caller(timed.app);
+        await c.csrf();
+        const t = performance.now();
+        const res = await c.post('/api/auth/login', { email, password: 'not the password at all' });
+        expect(res.status).toBe(401);
+        return performance.now() - t;
+      };
+      await once('nobody@enum.test'); // the first unknown address makes the comparison hash
+      const median = (xs: number[]) => xs.sort((a, b) => a - b)[Math.floor(xs.length / 2)];
+      const known: number[] = [];
+      const unknown: number[] = [];
+      for (let i = 0; i < 5; i++) {
+        known.push(await once('timed@enum.test'));
+        unknown.push(await once(`nobody-${i}@enum.test`));
+      }
+      const ratio = median(known) / median(unknown);
+      expect(ratio).toBeGreaterThan(0.5);
+      expect(ratio).toBeLessThan(2);
+    } finally {
+      await timed.stop();
+    }
+  }, 120_000);
+});
+
 describe('passwords', () => {
   const base = { name: 'Long Secret', studioName: 'Long Studio', currency: 'EUR', timezone: 'UTC' };
 

@@ -31,8 +31,6 @@ export const RESET_LIMITS = { mailsPerAccount: 5, requestsPerAddress: 30 } as co
 export const bcryptInput = (password: string) =>
   Buffer.byteLength(password, 'utf8') > 72 ? `sha256:${crypto.createHash('sha256').update(password, 'utf8').digest('base64')}` : password;
 
-// A fixed hash compared against when the address is unknown, so both paths take the same time.
-const DUMMY_HASH = bcrypt.hashSync('not-a-real-password-for-timing', 10);
 
 export function authService(deps: {
   db: Db;
@@ -46,6 +44,10 @@ export function authService(deps: {
   const { db, repo, clock, mailer } = deps;
   const now = () => iso(clock.now());
   const hash = (password: string) => bcrypt.hash(bcryptInput(password), deps.bcryptRounds);
+  // A hash compared against when the address is unknown, at the accounts' own cost, so both paths take the same
+  // time and the answer's speed does not tell whether an account exists (made once, when first needed).
+  let dummyHash: Promise<string> | null = null;
+  const unknownAccountHash = () => (dummyHash ??= bcrypt.hash('not-a-real-password-for-timing', deps.bcryptRounds));
 
   async function me(userId: number) {
     const u = await repo.findUserById(userId);
@@ -91,7 +93,7 @@ export function authService(deps: {
       }
       if (retryMs > 0) throw errors.throttled(retryMs / 1000);
       const u = await repo.findUserByEmail(input.email);
-      const ok = await bcrypt.compare(bcryptInput(input.password), u?.password_hash ?? DUMMY_HASH);
+      const ok = await bcrypt.compare(bcryptInput(input.password), u?.password_hash ?? (await unknownAccountHash()));
       if (!u || !ok) {
         for (const k of keys) await repo.addFailure(k.key, now());
         throw errors.invalidCredentials();
