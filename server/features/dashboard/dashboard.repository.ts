@@ -7,21 +7,29 @@ export function dashboardRepository(db: Db) {
     byStatus: (studioId: number) =>
       db('commissions').where({ studio_id: studioId }).groupBy('status').select('status').count({ n: '*' }) as Promise<{ status: CommissionStatus; n: number | string }[]>,
 
-    /** Stages not done or skipped, of queued commissions whose due date is before `today`. */
-    overdueStages: (studioId: number, today: string) =>
-      db('stages as s')
-        .join('figures as f', 'f.id', 's.figure_id')
-        .join('commissions as c', 'c.id', 's.commission_id')
-        .leftJoin('users as u', 'u.id', 'f.painter_id')
-        .where('s.studio_id', studioId)
-        .whereIn('s.status', ['todo', 'working'])
-        .whereIn('c.status', ['booked', 'on_bench'])
-        .whereNotNull('c.due_date')
-        .where('c.due_date', '<', today)
-        .orderBy([{ column: 'c.due_date' }, { column: 'c.id' }, { column: 'f.position' }, { column: 's.position' }])
-        .select('s.id as stage_id', 's.name as stage_name', 'f.id as figure_id', 'f.name as figure_name', 'c.id as commission_id', 'c.title', 'c.due_date', 'u.id as painter_id', 'u.name as painter_name') as Promise<
-        { stage_id: number; stage_name: string; figure_id: number; figure_name: string; commission_id: number; title: string; due_date: string; painter_id: number | null; painter_name: string | null }[]
-      >,
+    /** The first `limit` stages not done or skipped, of queued commissions whose due date is before `today`, and how many there are. */
+    async overdueStages(studioId: number, today: string, limit: number) {
+      const overdue = () =>
+        db('stages as s')
+          .join('commissions as c', 'c.id', 's.commission_id')
+          .where('s.studio_id', studioId)
+          .whereIn('s.status', ['todo', 'working'])
+          .whereIn('c.status', ['booked', 'on_bench'])
+          .whereNotNull('c.due_date')
+          .where('c.due_date', '<', today);
+      const [count, items] = await Promise.all([
+        overdue().count({ n: '*' }).first(),
+        overdue()
+          .join('figures as f', 'f.id', 's.figure_id')
+          .leftJoin('users as u', 'u.id', 'f.painter_id')
+          .orderBy([{ column: 'c.due_date' }, { column: 'c.id' }, { column: 'f.position' }, { column: 's.position' }])
+          .limit(limit)
+          .select('s.id as stage_id', 's.name as stage_name', 'f.id as figure_id', 'f.name as figure_name', 'c.id as commission_id', 'c.title', 'c.due_date', 'u.id as painter_id', 'u.name as painter_name') as Promise<
+          { stage_id: number; stage_name: string; figure_id: number; figure_name: string; commission_id: number; title: string; due_date: string; painter_id: number | null; painter_name: string | null }[]
+        >,
+      ]);
+      return { total: Number(count?.n ?? 0), items };
+    },
 
     runningTimer: (studioId: number, userId: number) =>
       db('time_entries as t')

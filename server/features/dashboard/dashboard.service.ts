@@ -18,6 +18,23 @@ import type { DashboardRepository } from './dashboard.repository';
 const HOUR_MS = 3_600_000;
 const round2 = (x: number) => Math.round(x * 100) / 100;
 
+/**
+ * localDateOf for the many block starts of one forecast: zone offsets (and their changes) fall on quarter
+ * hours, so every instant of a quarter hour has the same local date, and each quarter hour is looked up once.
+ */
+function localDates(tz: string) {
+  const memo = new Map<number, string>();
+  return (ms: number) => {
+    const quarter = Math.floor(ms / 900_000);
+    let date = memo.get(quarter);
+    if (date === undefined) {
+      date = localDateOf(quarter * 900_000, tz);
+      memo.set(quarter, date);
+    }
+    return date;
+  };
+}
+
 /** Working hours of one painter between two local dates, from `nowMs` on. */
 function capacityHours(sf: StudioForecast, painterId: number, from: string, to: string, nowMs: number, into: (date: string, hours: number) => void) {
   const p = sf.input.painters.find((x) => x.id === painterId);
@@ -75,7 +92,8 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
     };
 
     const mine = blocksOf(sf).filter((b) => Number(b.painterId) === userId);
-    const dated = mine.map((b) => ({ b, date: localDateOf(parseInstant(b.start), tz) }));
+    const dateOf = localDates(tz);
+    const dated = mine.map((b) => ({ b, date: dateOf(parseInstant(b.start)) }));
     const week = dated.filter((x) => x.date >= weekStart && x.date <= weekEnd).map((x) => x.b);
     let capacity = 0;
     capacityHours(sf, userId, weekStart, weekEnd, nowMs, (_d, hrs) => (capacity += hrs));
@@ -112,8 +130,9 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
         if (i >= 0 && i < 8) util[i].capacityHours += hrs;
       });
     }
+    const dateOf = localDates(tz);
     for (const b of blocksOf(sf)) {
-      const i = weekIndex(localDateOf(parseInstant(b.start), tz));
+      const i = weekIndex(dateOf(parseInstant(b.start)));
       if (i >= 0 && i < 8) util[i].bookedHours += (parseInstant(b.end) - parseInstant(b.start)) / HOUR_MS;
     }
     for (const u of util) {
@@ -131,7 +150,7 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
 
     const [statusRows, overdue, unpaid, earnings, myBench] = await Promise.all([
       repo.byStatus(actor.studioId),
-      repo.overdueStages(actor.studioId, sf.today),
+      repo.overdueStages(actor.studioId, sf.today, 10),
       reports.unpaidInvoices(actor.studioId),
       reports.earnings(actor.studioId, {}),
       bench(actor.studioId, actor.userId, sf),
@@ -146,8 +165,8 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
       byStatus: statusRows.map((r) => ({ status: r.status, count: Number(r.n) })),
       utilisation: util,
       overdueStages: {
-        total: overdue.length,
-        items: overdue.slice(0, 10).map((o) => ({
+        total: overdue.total,
+        items: overdue.items.map((o) => ({
           stageId: o.stage_id,
           stageName: o.stage_name,
           figure: { id: o.figure_id, name: o.figure_name },

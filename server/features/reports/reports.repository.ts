@@ -35,33 +35,42 @@ export function reportsRepository(db: Db) {
   return {
     studio: (studioId: number) => db('studios').where({ id: studioId }).first('timezone', 'currency') as Promise<{ timezone: string; currency: string } | undefined>,
 
-    /** Done stages of commissions that were not cancelled, with the closed time logged on each. */
-    async doneStages(studioId: number): Promise<DoneStageDbRow[]> {
+    /**
+     * Done stages with closed time logged on them, of commissions that were not cancelled (newest first),
+     * and how many done stages have none: the report reads only the stages it learns from, and counts the rest.
+     */
+    async doneStages(studioId: number): Promise<{ rows: DoneStageDbRow[]; withoutTime: number }> {
       const logged = db('time_entries').where('studio_id', studioId).whereNotNull('ended_at').groupBy('stage_id').select('stage_id').sum({ minutes: 'minutes' }).as('t');
-      const rows = await db('stages as s')
-        .join('figures as f', 'f.id', 's.figure_id')
-        .join('commissions as c', 'c.id', 's.commission_id')
-        .leftJoin(logged, 't.stage_id', 's.id')
-        .where({ 's.studio_id': studioId, 's.status': 'done' })
-        .whereNot('c.status', 'cancelled')
-        .orderBy([{ column: 's.done_at', order: 'desc' }, { column: 's.id', order: 'desc' }])
-        .select(
-          's.id as stage_id',
-          's.template_key',
-          's.name as stage_name',
-          's.estimate_minutes',
-          's.done_at',
-          'f.id as figure_id',
-          'f.name as figure_name',
-          'f.quantity',
-          'f.size_class',
-          'f.tier',
-          'f.extras',
-          'c.id as commission_id',
-          'c.title as commission_title',
-          't.minutes as logged_minutes',
-        );
-      return rows.map((r) => ({ ...r, logged_minutes: n(r.logged_minutes) })) as DoneStageDbRow[];
+      const done = () =>
+        db('stages as s')
+          .join('commissions as c', 'c.id', 's.commission_id')
+          .where({ 's.studio_id': studioId, 's.status': 'done' })
+          .whereNot('c.status', 'cancelled');
+      const [all, rows] = await Promise.all([
+        done().count({ n: '*' }).first(),
+        done()
+          .join('figures as f', 'f.id', 's.figure_id')
+          .join(logged, 't.stage_id', 's.id')
+          .where('t.minutes', '>', 0)
+          .orderBy([{ column: 's.done_at', order: 'desc' }, { column: 's.id', order: 'desc' }])
+          .select(
+            's.id as stage_id',
+            's.template_key',
+            's.name as stage_name',
+            's.estimate_minutes',
+            's.done_at',
+            'f.id as figure_id',
+            'f.name as figure_name',
+            'f.quantity',
+            'f.size_class',
+            'f.tier',
+            'f.extras',
+            'c.id as commission_id',
+            'c.title as commission_title',
+            't.minutes as logged_minutes',
+        ),
+      ]);
+      return { rows: rows.map((r) => ({ ...r, logged_minutes: n(r.logged_minutes) })) as DoneStageDbRow[], withoutTime: n(all?.n) - rows.length };
     },
 
     settings: (studioId: number) =>

@@ -93,8 +93,8 @@ export function reportsService(deps: { repo: ReportsRepository; priceTables: Pri
     },
 
     async actuals(studioId: number): Promise<ActualsReport> {
-      const [rows, table] = await Promise.all([repo.doneStages(studioId), priceTables.get(studioId)]);
-      const withTime = rows.filter((r) => r.logged_minutes > 0);
+      const [done, table] = await Promise.all([repo.doneStages(studioId), priceTables.get(studioId)]);
+      const withTime = done.rows;
       const stageLabel = new Map(table.stages.map((s) => [s.key, s.label]));
       const tierLabel = new Map(table.tiers.map((t) => [t.key, t.label]));
       const sizeLabel = (k: string) => sizeClassLabels[k as SizeClass] ?? k;
@@ -148,7 +148,7 @@ export function reportsService(deps: { repo: ReportsRepository; priceTables: Pri
 
       return {
         doneStages: withTime.length,
-        doneWithoutTime: rows.length - withTime.length,
+        doneWithoutTime: done.withoutTime,
         totals: { estimatedHours: h(est), loggedHours: h(log), difference: ratio(log, est) },
         byStage,
         recent: withTime.slice(0, 30).map((r) => ({
