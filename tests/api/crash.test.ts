@@ -13,6 +13,7 @@ import Database from 'better-sqlite3';
 import sharp from 'sharp';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { checkoutCompletedEvent } from '../support/payment-events';
 
 const root = path.resolve(import.meta.dirname, '../..');
 
@@ -201,25 +202,6 @@ function expectedPhotoFiles(db: Database.Database) {
 }
 
 const stripe = new Stripe('sk_test_crash_signing_only');
-const completedEvent = (id: string, s: { sessionId: string; amount: number; invoiceId: number; studioId: number }) =>
-  JSON.stringify({
-    id,
-    object: 'event',
-    type: 'checkout.session.completed',
-    created: Math.floor(Date.now() / 1000),
-    data: {
-      object: {
-        id: s.sessionId,
-        object: 'checkout.session',
-        status: 'complete',
-        payment_status: 'paid',
-        amount_total: s.amount,
-        currency: 'eur',
-        payment_intent: `pi_crash_${s.invoiceId}`,
-        metadata: { invoiceId: String(s.invoiceId), studioId: String(s.studioId) },
-      },
-    },
-  });
 const deliver = (server: ServerRun, payload: string) =>
   fetch(`${server.base}/api/webhooks/payments`, {
     method: 'POST',
@@ -309,8 +291,8 @@ beforeAll(async () => {
   // Per checkout: its event, the same event delivered twice, and a second event with another id for the same session.
   events = checkouts.flatMap((c, i) => {
     const s = { sessionId: c.sessionId, amount: c.amount, invoiceId: c.invoiceId, studioId };
-    const first = { id: `evt_crash_${i}`, payload: completedEvent(`evt_crash_${i}`, s) };
-    const other = { id: `evt_crash_${i}_other`, payload: completedEvent(`evt_crash_${i}_other`, s) };
+    const first = { id: `evt_crash_${i}`, payload: checkoutCompletedEvent(`evt_crash_${i}`, { ...s, paymentIntent: `pi_crash_${s.invoiceId}` }) };
+    const other = { id: `evt_crash_${i}_other`, payload: checkoutCompletedEvent(`evt_crash_${i}_other`, { ...s, paymentIntent: `pi_crash_${s.invoiceId}` }) };
     return [first, first, other];
   });
 

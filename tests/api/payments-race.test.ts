@@ -4,6 +4,7 @@
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { startTestApp, type TestApp } from '../support/app';
+import { checkoutCompletedEvent } from '../support/payment-events';
 import { acceptedQuote, commission, invoicesOf, moneyStudios, type Side } from './money-flow';
 
 let sw: TestApp;
@@ -14,25 +15,6 @@ beforeAll(async () => {
 });
 afterAll(() => sw.stop());
 
-const completed = (id: string, s: { sessionId: string; amount: number; invoiceId: number; studioId: number }) =>
-  JSON.stringify({
-    id,
-    object: 'event',
-    type: 'checkout.session.completed',
-    created: Math.floor(sw.clock.now().getTime() / 1000),
-    data: {
-      object: {
-        id: s.sessionId,
-        object: 'checkout.session',
-        status: 'complete',
-        payment_status: 'paid',
-        amount_total: s.amount,
-        currency: 'eur',
-        payment_intent: `pi_race_${s.invoiceId}`,
-        metadata: { invoiceId: String(s.invoiceId), studioId: String(s.studioId) },
-      },
-    },
-  });
 const deliver = (payload: string) =>
   request(sw.app)
     .post('/api/webhooks/payments')
@@ -48,7 +30,7 @@ describe('payment events at the same moment', () => {
     const co = await a.client.post(`/api/studios/${a.studioId}/invoices/${deposit.id}/checkout`);
     expect(co.status).toBe(200);
     const s = { sessionId: co.body.sessionId, amount: co.body.amountMinor, invoiceId: deposit.id, studioId: a.studioId };
-    const answers = await Promise.all(Array.from({ length: 6 }, (_, i) => deliver(completed(`evt_race_${i}`, s))));
+    const answers = await Promise.all(Array.from({ length: 6 }, (_, i) => deliver(checkoutCompletedEvent(`evt_race_${i}`, { ...s, paymentIntent: `pi_race_${s.invoiceId}` }, sw.clock.now()))));
     expect(answers.map((r) => r.status)).toEqual([200, 200, 200, 200, 200, 200]);
     expect((await sw.db('invoice_payments').where({ invoice_id: deposit.id })).map((p) => Number(p.amount))).toEqual([co.body.amountMinor]);
     const outcomes = (await sw.db('payment_events').whereLike('id', 'evt_race_%')).map((e) => e.outcome).sort();

@@ -6,6 +6,7 @@ import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { mailTo, signUp, startTestApp, type TestApp } from '../support/app';
 import { acceptedQuote, commission, invoicesOf, listen, moneyStudios, payOnCheckoutPage, sentQuote, type Side } from './money-flow';
+import { checkoutCompletedEvent } from '../support/payment-events';
 
 let sw: TestApp;
 let a: Side;
@@ -42,27 +43,10 @@ async function payDepositByCard(title?: string) {
 }
 
 const webhook = (body: string, signature: string) => request(sw.app).post('/api/webhooks/payments').set('content-type', 'application/json').set('stripe-signature', signature).send(body);
+const completedEvent = (id: string, session: { id: string; amount: number; currency: string; invoiceId: number; studioId: number }) =>
+  checkoutCompletedEvent(id, { ...session, sessionId: session.id }, sw.clock.now());
 const sign = (payload: string, secret = sw.paymentsFake!.webhookSecret) =>
   sw.payments.stripe.webhooks.generateTestHeaderString({ payload, secret, timestamp: Math.floor(sw.clock.now().getTime() / 1000) });
-const completedEvent = (id: string, session: { id: string; amount: number; currency: string; invoiceId: number; studioId: number }) =>
-  JSON.stringify({
-    id,
-    object: 'event',
-    type: 'checkout.session.completed',
-    created: Math.floor(sw.clock.now().getTime() / 1000),
-    data: {
-      object: {
-        id: session.id,
-        object: 'checkout.session',
-        status: 'complete',
-        payment_status: 'paid',
-        amount_total: session.amount,
-        currency: session.currency,
-        payment_intent: `pi_test_${id}`,
-        metadata: { invoiceId: String(session.invoiceId), studioId: String(session.studioId) },
-      },
-    },
-  });
 
 describe('quote to booked commission through the payment fake', () => {
   it('quote → send (mail) → accept → deposit invoice → checkout page → signed event → paid and booked', async () => {

@@ -22,7 +22,7 @@ function fetchCaller(base: string): Http {
   const send = async (method: string, url: string, body?: BodyInit, type?: string) => {
     const headers: Record<string, string> = {};
     if (method !== 'GET') {
-      if (!token) token = (await send('GET', '/api/auth/csrf')).body.token;
+      if (!token) token = ((await send('GET', '/api/auth/csrf')).body as { token: string }).token;
       headers['x-csrf-token'] = token!;
     }
     if (cookie) headers.cookie = cookie;
