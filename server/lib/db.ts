@@ -42,6 +42,25 @@ const pgTypeParsers = {
   },
 };
 
+/**
+ * Knex prepares every query's statement afresh; on a busy server that is a good part of each query's
+ * cost. The same SQL text gets the same prepared statement back (better-sqlite3 statements are reusable,
+ * re-prepare themselves after a schema change, and Knex runs each to completion at once), the least
+ * recently used of at most `size` dropped.
+ */
+function cachePreparedStatements(conn: { prepare: (sql: string) => unknown }, size = 500) {
+  const prepare = conn.prepare.bind(conn);
+  const cache = new Map<string, unknown>();
+  conn.prepare = (sql: string) => {
+    let statement = cache.get(sql);
+    if (statement) cache.delete(sql);
+    else statement = prepare(sql);
+    cache.set(sql, statement);
+    if (cache.size > size) cache.delete(cache.keys().next().value!);
+    return statement;
+  };
+}
+
 export function openDb(opts: { dataDir: string; databaseUrl?: string }): Db {
   if (opts.databaseUrl) {
     return knexFactory({
@@ -59,7 +78,8 @@ export function openDb(opts: { dataDir: string; databaseUrl?: string }): Db {
       // One connection: better-sqlite3 is synchronous, and a single writer avoids SQLITE_BUSY between our own connections.
       min: 1,
       max: 1,
-      afterCreate(conn: { pragma: (s: string) => unknown }, done: (err: Error | null, conn: unknown) => void) {
+      afterCreate(conn: { pragma: (s: string) => unknown; prepare: (sql: string) => unknown }, done: (err: Error | null, conn: unknown) => void) {
+        cachePreparedStatements(conn);
         conn.pragma('journal_mode = WAL');
         conn.pragma('foreign_keys = ON');
         conn.pragma('busy_timeout = 5000');

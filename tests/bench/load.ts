@@ -37,7 +37,24 @@ async function freePort() {
 
 type Result = { name: string; connections: number; rps: number; p50: number; p99: number; errors: number; non2xx: number };
 
+/**
+ * Waits until the server has worked off what the last run left queued (autocannon stops sending at the end
+ * of its time, but requests already sent are still answered), so one measurement's backlog does not land
+ * in the next one: three health checks in a row answered within 20 ms, or a minute at most.
+ */
+async function settle(url: string) {
+  const until = Date.now() + 60_000;
+  for (let quick = 0; quick < 3 && Date.now() < until; ) {
+    const t0 = performance.now();
+    await fetch(url).then((r) => r.arrayBuffer());
+    quick = performance.now() - t0 < 20 ? quick + 1 : 0;
+    if (!quick) await new Promise((r) => setTimeout(r, 100));
+  }
+}
+
 async function measure(name: string, url: string, connections: number, headers: Record<string, string> = {}, seconds = SECONDS): Promise<Result> {
+  // The app answers /api/health; the bare servers answer their own /.
+  await settle(new URL(url.includes('/api/') ? '/api/health' : '/', url).href);
   const r = await autocannon({ url, connections, duration: seconds, headers, pipelining: 1 });
   return { name, connections, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, errors: r.errors + r.timeouts, non2xx: r.non2xx };
 }
