@@ -1,12 +1,11 @@
 import type { CreateClientInput, UpdateClientInput } from '../../../shared/schemas/clients';
 import type { PageQuery } from '../../../shared/schemas/common';
 import { iso, type Clock } from '../../lib/clock';
-import type { Db } from '../../lib/db';
+import { isUniqueViolation, type Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
 import type { ClientsRepository } from './clients.repository';
 
 const emailTaken = () => errors.field('email', 'Another client of this studio already has this e-mail address.');
-const isUniqueViolation = (err: unknown) => /unique|duplicate/i.test(String((err as Error)?.message));
 
 export function clientsService(deps: { db: Db; repo: ClientsRepository; clock: Clock }) {
   const { repo, clock } = deps;

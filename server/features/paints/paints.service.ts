@@ -10,7 +10,7 @@ import {
   type UpdatePaintInput,
 } from '../../../shared/schemas/paints';
 import { iso, type Clock } from '../../lib/clock';
-import type { Db } from '../../lib/db';
+import { isUniqueViolation, type Db } from '../../lib/db';
 import { pageOf } from '../../lib/page';
 import { errors } from '../../lib/errors';
 import { parseOrThrow } from '../../lib/validate';
@@ -18,7 +18,6 @@ import { parsePaintsCsv, paintsToCsv } from './paints.csv';
 import { matchKey, toPaint, toPaintRef, type PaintRow, type PaintsRepository } from './paints.repository';
 
 const duplicate = () => errors.field('name', 'The rack already has a paint of this name from this maker.');
-const isUniqueViolation = (err: unknown) => /unique|duplicate/i.test(String((err as Error)?.message));
 const round2 = (n: number) => Math.round(n * 100) / 100;
 
 export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clock }) {
