@@ -106,6 +106,18 @@ describe('the timer', () => {
       ['Test Person', 1],
     ]);
   });
+
+  it('starting timers from two devices at the same moment leaves one running', async () => {
+    const [first, second] = c.figures[1].stages.slice(1, 3);
+    const phone = new Caller(sw.app);
+    await phone.post('/api/auth/login', { email: 'painter-a@studio.test', password: PASSWORD });
+    // On PostgreSQL the two requests' transactions run side by side (SQLite takes them one after the other).
+    const answers = await Promise.all([s.a.painter.post(`${A}/stages/${first.id}/timer`), phone.post(`${A}/stages/${second.id}/timer`), s.a.painter.post(`${A}/stages/${first.id}/timer`)]);
+    for (const r of answers) expect(r.status, JSON.stringify(r.body)).toBeLessThan(300);
+    const running = await sw.db('time_entries').where({ user_id: painterAId }).whereNull('ended_at');
+    expect(running).toHaveLength(1);
+    await s.a.painter.post(`${A}/timer/stop`);
+  });
 });
 
 describe('manual entries', () => {

@@ -55,6 +55,12 @@ export function timeRepository(db: Db) {
     listForStage: (studioId: number, stageId: number, q: PageParams) =>
       pageRows<TimeRow>(base(db).where({ 't.studio_id': studioId, 't.stage_id': stageId }).orderBy([{ column: 't.started_at' }, { column: 't.id' }]), q),
     get: (studioId: number, id: number, trx: Db = db) => base(trx).where({ 't.studio_id': studioId, 't.id': id }).first() as Promise<TimeRow | undefined>,
+    /**
+     * Holds the person's row until the transaction ends, so that their timer starts and stops take turns:
+     * on PostgreSQL two devices' requests would otherwise both find no timer running and both start one.
+     * (SQLite runs one transaction at a time; Knex leaves FOR UPDATE out there.)
+     */
+    lockPerson: (trx: Db, userId: number) => trx('users').where({ id: userId }).forUpdate().first('id'),
     /** Every running timer of a person, in any studio (one runs at a time; starting another stops these). */
     runningOf: (userId: number, trx: Db = db) => base(trx).where('t.user_id', userId).whereNull('t.ended_at') as Promise<TimeRow[]>,
     runningIn: (studioId: number, userId: number, trx: Db = db) =>

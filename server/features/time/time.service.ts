@@ -131,6 +131,7 @@ export function timeService(deps: { db: Db; repo: TimeRepository; figures: Figur
       const id = await db.transaction(async (trx) => {
         const ctx = await figures.stageContext(studioId, stageId, trx);
         assertOpen(ctx.commission_status);
+        await repo.lockPerson(trx, actor.userId);
         const running = await repo.runningOf(actor.userId, trx);
         const same = running.find((r) => r.studio_id === studioId && r.stage_id === stageId);
         for (const r of running) if (r !== same) await stopEntry(trx, r);
@@ -162,6 +163,7 @@ export function timeService(deps: { db: Db; repo: TimeRepository; figures: Figur
 
     async stop(actor: Actor) {
       const id = await db.transaction(async (trx) => {
+        await repo.lockPerson(trx, actor.userId);
         const r = await repo.runningIn(actor.studioId, actor.userId, trx);
         if (!r) throw errors.conflict('No timer of yours is running in this studio.', 'no_timer');
         await stopEntry(trx, r);
