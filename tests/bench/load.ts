@@ -22,6 +22,7 @@ import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { createSessionStore } from '../../server/lib/session-store';
 import { generate } from './support/generate';
+import { queryPlans, type Endpoint, type Who } from './support/plans';
 
 const root = path.resolve(import.meta.dirname, '../..');
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 4);
@@ -143,6 +144,46 @@ async function createFeed(base: string, cookie: string) {
   return ((await res.json()) as { url: string }).url;
 }
 
+/** Every list endpoint of studio 1; sub-lists read the studio's first commission on the bench and a stage of it with time logged. */
+function listEndpoints(ids: ReturnType<typeof benchIds>): Endpoint[] {
+  return [
+    { name: 'commissions', path: '/api/studios/1/commissions', who: 'owner' },
+    { name: 'clients', path: '/api/studios/1/clients', who: 'owner' },
+    { name: 'members', path: '/api/studios/1/members', who: 'owner' },
+    { name: 'invitations', path: '/api/studios/1/invitations', who: 'owner' },
+    { name: 'board', path: '/api/studios/1/board', who: 'owner' },
+    { name: 'schedule', path: '/api/studios/1/schedule', who: 'owner' },
+    { name: 'capacity', path: '/api/studios/1/capacity', who: 'owner' },
+    { name: 'quotes', path: '/api/studios/1/quotes', who: 'owner' },
+    { name: 'invoices', path: '/api/studios/1/invoices', who: 'owner' },
+    { name: 'money', path: '/api/studios/1/money', who: 'owner' },
+    { name: 'reports/earnings', path: '/api/studios/1/reports/earnings', who: 'owner' },
+    { name: 'reports/actuals', path: '/api/studios/1/reports/actuals', who: 'owner' },
+    { name: 'dashboard (owner)', path: '/api/studios/1/dashboard', who: 'owner' },
+    { name: 'paints', path: '/api/studios/1/paints', who: 'owner' },
+    { name: 'recipes', path: '/api/studios/1/recipes', who: 'owner' },
+    { name: 'enquiries', path: '/api/studios/1/enquiries', who: 'owner' },
+    { name: 'stage-template', path: '/api/studios/1/stage-template', who: 'owner' },
+    { name: 'commission activity', path: `/api/studios/1/commissions/${ids.commission}/activity`, who: 'owner' },
+    { name: 'commission comments', path: `/api/studios/1/commissions/${ids.commission}/comments`, who: 'owner' },
+    { name: 'commission photos', path: `/api/studios/1/commissions/${ids.commission}/photos`, who: 'owner' },
+    { name: 'commission approvals', path: `/api/studios/1/commissions/${ids.commission}/approvals`, who: 'owner' },
+    { name: 'commission scheme', path: `/api/studios/1/commissions/${ids.commission}/scheme`, who: 'owner' },
+    { name: 'commission shipments', path: `/api/studios/1/commissions/${ids.commission}/shipments`, who: 'owner' },
+    { name: 'stage time', path: `/api/studios/1/stages/${ids.stage}/time`, who: 'owner' },
+    { name: 'client: commissions', path: '/api/studios/1/commissions', who: 'client' },
+    { name: 'client: quotes', path: '/api/studios/1/quotes', who: 'client' },
+    { name: 'client: invoices', path: '/api/studios/1/invoices', who: 'client' },
+    { name: 'client: schedule', path: '/api/studios/1/schedule', who: 'client' },
+    { name: 'client: dashboard', path: '/api/studios/1/dashboard', who: 'client' },
+    { name: 'client: commission photos', path: `/api/studios/1/commissions/${ids.clientCommission}/photos`, who: 'client' },
+    { name: 'client: commission comments', path: `/api/studios/1/commissions/${ids.clientCommission}/comments`, who: 'client' },
+    { name: 'calendar feed (.ics)', path: '(the owner\'s feed address)', who: 'feed' },
+    { name: 'paints export (CSV)', path: '/api/studios/1/paints/export', who: 'owner' },
+    { name: 'invoices export (CSV)', path: '/api/studios/1/invoices/export.csv', who: 'owner' },
+  ];
+}
+
 const table = (rows: Result[]) => {
   const lines = ['| endpoint | conn | req/s | p50 ms | p99 ms | errors | non-2xx |', '|---|---:|---:|---:|---:|---:|---:|'];
   for (const r of rows) lines.push(`| ${r.name} | ${r.connections} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${r.errors} | ${r.non2xx} |`);
@@ -160,6 +201,8 @@ async function main() {
   const t0 = performance.now();
   generate(dataDir);
   console.log(`  generated in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
+  const ids = benchIds(dataDir);
+  const plans = await queryPlans(dataDir, listEndpoints(ids), 'bench password', { owner: 'bench-owner-1@bench.test', client: 'bench-client-1-1@bench.test' });
 
   const port = await freePort();
   const base = `http://127.0.0.1:${port}`;
@@ -206,44 +249,10 @@ async function main() {
 
     // Every list endpoint of studio 1: alone (1 connection: what one request costs) and at 50 connections.
     // Sub-lists read the studio's first commission on the bench and a stage of it with time logged.
-    const ids = benchIds(dataDir);
     const feed = await createFeed(base, owner);
-    const lists: [name: string, path: string, cookie: string][] = [
-      ['commissions', '/api/studios/1/commissions', owner],
-      ['clients', '/api/studios/1/clients', owner],
-      ['members', '/api/studios/1/members', owner],
-      ['invitations', '/api/studios/1/invitations', owner],
-      ['board', '/api/studios/1/board', owner],
-      ['schedule', '/api/studios/1/schedule', owner],
-      ['capacity', '/api/studios/1/capacity', owner],
-      ['quotes', '/api/studios/1/quotes', owner],
-      ['invoices', '/api/studios/1/invoices', owner],
-      ['money', '/api/studios/1/money', owner],
-      ['reports/earnings', '/api/studios/1/reports/earnings', owner],
-      ['reports/actuals', '/api/studios/1/reports/actuals', owner],
-      ['dashboard (owner)', '/api/studios/1/dashboard', owner],
-      ['paints', '/api/studios/1/paints', owner],
-      ['recipes', '/api/studios/1/recipes', owner],
-      ['enquiries', '/api/studios/1/enquiries', owner],
-      ['stage-template', '/api/studios/1/stage-template', owner],
-      ['commission activity', `/api/studios/1/commissions/${ids.commission}/activity`, owner],
-      ['commission comments', `/api/studios/1/commissions/${ids.commission}/comments`, owner],
-      ['commission photos', `/api/studios/1/commissions/${ids.commission}/photos`, owner],
-      ['commission approvals', `/api/studios/1/commissions/${ids.commission}/approvals`, owner],
-      ['commission scheme', `/api/studios/1/commissions/${ids.commission}/scheme`, owner],
-      ['commission shipments', `/api/studios/1/commissions/${ids.commission}/shipments`, owner],
-      ['stage time', `/api/studios/1/stages/${ids.stage}/time`, owner],
-      ['client: commissions', '/api/studios/1/commissions', client],
-      ['client: quotes', '/api/studios/1/quotes', client],
-      ['client: invoices', '/api/studios/1/invoices', client],
-      ['client: schedule', '/api/studios/1/schedule', client],
-      ['client: dashboard', '/api/studios/1/dashboard', client],
-      ['client: commission photos', `/api/studios/1/commissions/${ids.clientCommission}/photos`, client],
-      ['client: commission comments', `/api/studios/1/commissions/${ids.clientCommission}/comments`, client],
-      ['calendar feed (.ics)', new URL(feed).pathname, ''],
-      ['paints export (CSV)', '/api/studios/1/paints/export', owner],
-      ['invoices export (CSV)', '/api/studios/1/invoices/export.csv', owner],
-    ];
+    const endpoints = listEndpoints(ids);
+    const cookies: Record<Who, string> = { owner, client, feed: '' };
+    const lists = endpoints.map((e) => [e.name, e.who === 'feed' ? new URL(feed).pathname : e.path, cookies[e.who]] as const);
     const listRows: (Result & { alone: Result })[] = [];
     for (const [name, p, cookie] of lists) {
       const url = `${base}${p}`;
@@ -262,6 +271,11 @@ async function main() {
     console.log(slow.length ? `- over the aim at 50 connections: ${slow.map((r) => r.name).join(', ')}` : '- all within the aim');
     // Fifty requests always in flight on one process: p99 is about 50 ÷ (requests a second), whatever one costs alone.
     console.log(`- at 50 connections a p99 of 50 ms needs about ${(50 / 0.05).toFixed(0)} requests a second; bare Express hello made ${at50('bare Express hello').toFixed(0)} here`);
+
+    console.log('\n## Query plans (EXPLAIN QUERY PLAN of every statement each list runs, on this database)\n');
+    const planTable = ['| endpoint | queries | full scans of a growing table |', '|---|---:|---|'];
+    for (const r of plans) planTable.push(`| ${r.name} | ${r.queries} | ${r.scans.length ? r.scans.join('; ') : 'none'} |`);
+    console.log(planTable.join('\n'));
 
     const js = initialJsGzip();
     console.log(`\n## Client\n\n- initial JavaScript: ${js.files} file(s), ${js.kb.toFixed(1)} KB gzip (aim ≤ 200 KB)`);
