@@ -4,6 +4,9 @@ import { defineConfig } from 'vitest/config';
 // e2e (headless Chromium against a real server). `npm test` runs the first two.
 export default defineConfig({
   test: {
+    // Vitest's default is one worker fewer than the CPUs: one worker on CI's two cores. The API tests spend
+    // much of their time waiting (bcrypt, sharp, child servers, sockets), so two workers use both cores.
+    maxWorkers: 2,
     projects: [
       { test: { name: 'unit', include: ['tests/unit/**/*.test.ts'], environment: 'node' } },
       {
