@@ -373,7 +373,9 @@ const readDb = <T>(fn: (db: Database.Database) => T) => {
   }
 };
 
-describe('SIGKILL in the middle of a burst of uploads, payment events and invoice numbering, then a restart', () => {
+// The child server always runs on SQLite (its WAL recovery is what is tested), so the PostgreSQL pass of the
+// API suite (DATABASE_URL set) would only run the same test a second time.
+describe.skipIf(Boolean(process.env.DATABASE_URL))('SIGKILL in the middle of a burst of uploads, payment events and invoice numbering, then a restart', () => {
   it('the kill landed mid-burst: every stream had answered requests and requests still in flight', () => {
     const inFlight = (xs: (Answer | null)[]) => xs.filter((a) => a === null).length;
     expect(burst.photos.filter((a) => a?.status === 201).length).toBeGreaterThanOrEqual(KP);
