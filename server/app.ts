@@ -296,6 +296,9 @@ export async function createApp(config: Config) {
         return id;
       },
       autoLogging: config.logLevel === 'debug' || config.logLevel === 'trace',
+      // req.log carries only the request id (a full child logger per request costs more than many routes do);
+      // the lines that need the request name it themselves.
+      quietReqLogger: true,
     }),
   );
   app.use(
@@ -405,7 +408,7 @@ export async function createApp(config: Config) {
     else if (err?.type === 'entity.too.large') e = errors.tooLarge('The request body is too large.');
     else if (err?.status === 400 || err?.statusCode === 400) e = errors.invalid('The request could not be read.');
     else {
-      req.log.error({ err }, 'unexpected error');
+      req.log.error({ err, req }, 'unexpected error');
       const id = String(req.id);
       res.status(500).json({ error: { code: 'internal', message: `Something went wrong on our side. If it keeps happening, quote request ${id}.`, requestId: id } });
       return;
