@@ -1,6 +1,7 @@
 /**
  * `npm run bench`: one table of throughput and latency for the app's busiest reads against a bare Express
- * "hello" and a bare Express with the same session store, measured in the same run on 127.0.0.1; every list
+ * "hello" and a bare Express with the same session store (each in a process of its own, like the app's server,
+ * so none shares autocannon's event loop), measured in the same run on 127.0.0.1; every list
  * endpoint at 50 connections (and alone, at 1 connection) on a generated database (50 studios, 10,000
  * commissions, 100,000 figures, 1,000,000 stages, and the quotes, invoices, paints, recipes, photos,
  * comments and time beside them); and the gzip size of the client's initial JavaScript.
@@ -14,13 +15,9 @@ import os from 'node:os';
 import path from 'node:path';
 import zlib from 'node:zlib';
 import autocannon from 'autocannon';
-import express from 'express';
-import session from 'express-session';
 import Database from 'better-sqlite3';
-import knexFactory from 'knex';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
-import { createSessionStore } from '../../server/lib/session-store';
 import { generate } from './support/generate';
 import { queryPlans, type Endpoint, type Who } from './support/plans';
 
@@ -75,41 +72,19 @@ async function login(base: string, email: string) {
   return res.headers.get('set-cookie')!.split(';')[0];
 }
 
+/** Starts tests/bench/support/bare-servers.ts in its own process and reads the two ports it prints. */
 async function bareServers(dir: string) {
-  const hello = express();
-  hello.get('/', (_req, res) => res.json({ hello: 'world' }));
-  // The same SQLite settings as the app's connection (server/lib/db.ts), so the comparison is of the stacks, not of fsync.
-  const knex = knexFactory({
-    client: 'better-sqlite3',
-    connection: { filename: path.join(dir, 'bare.sqlite') },
-    useNullAsDefault: true,
-    pool: {
-      min: 1,
-      max: 1,
-      afterCreate(conn: { pragma: (s: string) => unknown }, done: (err: Error | null, conn: unknown) => void) {
-        conn.pragma('journal_mode = WAL');
-        conn.pragma('synchronous = NORMAL');
-        done(null, conn);
-      },
-    },
-  });
-  await knex.schema.createTable('sessions', (t) => {
-    t.string('sid', 255).primary();
-    t.json('sess').notNullable();
-    t.timestamp('expired', { useTz: true }).notNullable().index();
-  });
-  const withSession = express();
-  withSession.use(session({ secret: 'bench-secret-bench-secret', store: createSessionStore(knex, { cleanupInterval: 0 }), resave: false, saveUninitialized: false, rolling: true }));
-  withSession.get('/login', (req, res) => {
-    (req.session as unknown as { who: string }).who = 'bench';
-    res.json({ ok: true });
-  });
-  withSession.get('/', (_req, res) => res.json({ hello: 'world' }));
-  const listen = (app: express.Express) =>
-    new Promise<{ port: number; close: () => void }>((resolve) => {
-      const s = app.listen(0, '127.0.0.1', () => resolve({ port: (s.address() as net.AddressInfo).port, close: () => s.close() }));
+  const child = spawn(process.execPath, ['--import', 'tsx', 'tests/bench/support/bare-servers.ts', dir], { cwd: root, detached: true, stdio: ['ignore', 'pipe', 'inherit'] });
+  const ports = await new Promise<{ hello: number; withSession: number }>((resolve, reject) => {
+    let out = '';
+    child.stdout!.on('data', (b: Buffer) => {
+      out += b.toString();
+      const line = out.split('\n').find((l) => l.startsWith('{'));
+      if (line) resolve(JSON.parse(line));
     });
-  return { hello: await listen(hello), withSession: await listen(withSession), knex };
+    child.once('exit', (code) => reject(new Error(`bare servers exited (${code})`)));
+  });
+  return { ...ports, stop: () => process.kill(-child.pid!, 'SIGTERM') };
 }
 
 function initialJsGzip() {
@@ -212,6 +187,7 @@ async function main() {
     stdio: ['ignore', 'inherit', 'inherit'],
     env: { ...process.env, PORT: String(port), DATA_DIR: dataDir, DEMO: 'false', LOG_LEVEL: 'warn', SMTP_URL: '', NODE_ENV: 'production' },
   });
+  let bare: Awaited<ReturnType<typeof bareServers>> | undefined;
   try {
     for (let i = 0; ; i++) {
       try {
@@ -224,13 +200,13 @@ async function main() {
     }
     const owner = await login(base, 'bench-owner-1@bench.test');
     const client = await login(base, 'bench-client-1-1@bench.test');
-    const bare = await bareServers(dataDir);
-    const bareCookie = (await fetch(`http://127.0.0.1:${bare.withSession.port}/login`)).headers.get('set-cookie')!.split(';')[0];
+    bare = await bareServers(dataDir);
+    const bareCookie = (await fetch(`http://127.0.0.1:${bare.withSession}/login`)).headers.get('set-cookie')!.split(';')[0];
 
     const rows: Result[] = [];
     for (const c of LEVELS) {
-      rows.push(await measure('bare Express hello', `http://127.0.0.1:${bare.hello.port}/`, c));
-      rows.push(await measure('bare Express + session store', `http://127.0.0.1:${bare.withSession.port}/`, c, { cookie: bareCookie }));
+      rows.push(await measure('bare Express hello', `http://127.0.0.1:${bare.hello}/`, c));
+      rows.push(await measure('bare Express + session store', `http://127.0.0.1:${bare.withSession}/`, c, { cookie: bareCookie }));
       rows.push(await measure('commission list (owner)', `${base}/api/studios/1/commissions?limit=50`, c, { cookie: owner }));
       rows.push(await measure('bench board (owner)', `${base}/api/studios/1/board`, c, { cookie: owner }));
       rows.push(await measure('client portal: my commissions', `${base}/api/studios/1/commissions?limit=50`, c, { cookie: client }));
@@ -280,10 +256,8 @@ async function main() {
     const js = initialJsGzip();
     console.log(`\n## Client\n\n- initial JavaScript: ${js.files} file(s), ${js.kb.toFixed(1)} KB gzip (aim ≤ 200 KB)`);
     console.log(`\n- load average (1, 5, 15 min) at the start: ${loadAtStart}; at the end: ${loadAverage()} (${os.cpus().length} cores)`);
-    bare.hello.close();
-    bare.withSession.close();
-    await bare.knex.destroy();
   } finally {
+    bare?.stop();
     try {
       process.kill(-server.pid!, 'SIGTERM');
     } catch {
