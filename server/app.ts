@@ -173,7 +173,7 @@ export async function createApp(config: Config) {
   const board = boardService({ repo: boardRepository(db), setup, clock: config.clock });
   // The calendar: painters' hours and days off, the queue and its forecast, the per-person calendar feeds.
   const capacity = capacityService({ db, repo: capacityRepository(db), clock: config.clock });
-  const schedule = scheduleService({ db, repo: scheduleRepository(db), capacity, clock: config.clock });
+  const schedule = scheduleService({ db, repo: scheduleRepository(db), capacity, clock: config.clock, cacheStages: config.forecastCacheStages });
   const calendarFeed = calendarFeedService({ db, repo: calendarFeedRepository(db), schedule, clock: config.clock, publicUrl: config.publicUrl });
   const invitations = invitationsService({
     db,

@@ -56,6 +56,8 @@ export type Config = {
   serveClient: boolean;
   /** Run background jobs on timers (tests call them directly instead). */
   runJobs: boolean;
+  /** Stages the in-memory forecast cache may hold across studios (default 200,000, about 60 MB); 0 turns it off. */
+  forecastCacheStages?: number;
 };
 
 export const DEMO_PASSWORD = 'paint-the-bench';

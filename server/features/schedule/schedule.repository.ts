@@ -76,6 +76,15 @@ export function scheduleRepository(db: Db) {
       // updated_at stays: a place in the queue is the studio's plan, not a change to the commission.
       for (const [i, id] of ids.entries()) await trx('commissions').where({ studio_id: studioId, id }).update({ queue_position: i + 1 });
     },
+    /**
+     * The studio's schedule version: database triggers move it with every committed change to a row the
+     * forecast reads (migrations/20270121120000-schedule-version.ts). Undefined when there is no such studio.
+     */
+    version: (studioId: number) =>
+      db('studios')
+        .where({ id: studioId })
+        .first('schedule_version')
+        .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined)),
     userNames: (ids: number[], trx: Db = db) =>
       ids.length ? (trx('users').whereIn('id', ids).select('id', 'name') as Promise<{ id: number; name: string }[]>) : Promise.resolve([]),
   };

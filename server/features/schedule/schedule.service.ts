@@ -25,6 +25,7 @@ import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
 import type { Actor, CapacityService } from '../capacity/capacity.service';
+import { deepFreeze, forecastCache } from './forecast-cache';
 import type { QueueRow, ScheduleRepository, WorkFigureRow, WorkStageRow } from './schedule.repository';
 
 const HOUR_MIN = 60;
@@ -51,7 +52,7 @@ function stageWork(s: WorkStageRow, loggedMinutes: number, now: string): StageWo
   return remaining > 0 ? { id: s.id, remainingHours: remaining / HOUR_MIN, waitHoursAfter } : { id: s.id, remainingHours: 0, waitHoursAfter, finishedAt: now };
 }
 
-type Work = { figures: WorkFigureRow[]; stages: WorkStageRow[]; logged: Map<number, number> };
+type Work = { figures: WorkFigureRow[]; stages: WorkStageRow[]; logged: ReadonlyMap<number, number> };
 
 /** Rows grouped by a key, in their order: one pass, so a long queue costs no more than its rows. */
 function groupBy<T>(rows: T[], key: (r: T) => number) {
@@ -88,23 +89,69 @@ export type StudioForecast = {
   queue: QueueRow[];
   work: Work;
   painters: { id: number; name: string; weeklyHours: number }[];
-  names: Map<number, string>;
+  names: ReadonlyMap<number, string>;
 };
 
-export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capacity: CapacityService; clock: Clock }) {
+type RunResult = StudioForecast & { queueLength: number };
+/** A run as the cache keeps it: the whole queue (for `through`) beside the forecast of its first places. */
+type Kept = { whole: QueueRow[]; result: RunResult };
+
+const MINUTE_MS = 60_000;
+/** The forecast's "now": the start of the clock's minute, so one worked-out forecast answers for the whole minute. */
+const minuteOf = (d: Date) => new Date(Math.floor(d.getTime() / MINUTE_MS) * MINUTE_MS);
+
+/** The first `n` places of a kept run (the forecast of a place depends only on the places before it). */
+function prefix(kept: Kept, n: number): RunResult {
+  const r = kept.result;
+  if (n >= r.queue.length) return r;
+  return deepFreeze({
+    ...r,
+    queue: r.queue.slice(0, n),
+    input: { ...r.input, queue: r.input.queue.slice(0, n) },
+    forecast: { ...r.forecast, commissions: r.forecast.commissions.slice(0, n) },
+  });
+}
+
+/**
+ * `cacheStages`: how many stages the in-memory forecast cache may hold across studios (0: no cache, every
+ * run reads the database; default 200,000).
+ */
+export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capacity: CapacityService; clock: Clock; cacheStages?: number }) {
   const { db, repo, capacity, clock } = deps;
+  const maxStages = deps.cacheStages ?? 200_000;
+  const cache = maxStages > 0 ? forecastCache<Kept>({ maxWeight: maxStages, weigh: (k) => k.result.work.stages.length + k.whole.length + 1 }) : null;
 
   /**
-   * Reads the queue, the work left and the painters' time from the database and runs the forecast.
-   * `through` (a count) stops the queue there: the forecast books commissions in queue order, so those
-   * after a place never change where the ones before it land, and a page of the timeline needs only the
-   * work up to its last commission. `queueLength` is the whole queue's length either way.
+   * Reads the queue, the work left and the painters' time from the database and runs the forecast, as of
+   * the start of the current minute. `through` (a count) stops the queue there: the forecast books
+   * commissions in queue order, so those after a place never change where the ones before it land, and a
+   * page of the timeline needs only the work up to its last commission. `queueLength` is the whole
+   * queue's length either way.
+   *
+   * The answer is kept per studio, under the studio's schedule version and the minute, and frozen: while
+   * neither moves, a run reads only the version. A kept run of the first n places answers any `through`
+   * up to n, by the rule above; one that needs more places works them out afresh.
    */
-  async function run(studioId: number, opts: { through?: (queue: QueueRow[]) => number } = {}): Promise<StudioForecast & { queueLength: number }> {
-    const nowDate = clock.now();
+  async function run(studioId: number, opts: { through?: (queue: QueueRow[]) => number } = {}): Promise<RunResult> {
+    const nowDate = minuteOf(clock.now());
+    const fresh = async () => deepFreeze(await compute(studioId, nowDate, opts.through));
+    if (!cache) return (await fresh()).result;
+    const version = await repo.version(studioId);
+    if (version === undefined) return (await fresh()).result;
+    const key = { studioId, version, minute: nowDate.getTime() };
+    const kept = cache.get(key);
+    if (kept) {
+      const k = await kept;
+      const n = opts.through ? opts.through(k.whole) : k.whole.length;
+      if (n <= k.result.queue.length) return prefix(k, n);
+    }
+    return (await cache.set(key, fresh())).result;
+  }
+
+  async function compute(studioId: number, nowDate: Date, through?: (queue: QueueRow[]) => number): Promise<Kept> {
     const now = iso(nowDate);
     const [whole, cap] = await Promise.all([repo.queue(studioId), capacity.forForecast(studioId)]);
-    const queue = opts.through ? whole.slice(0, opts.through(whole)) : whole;
+    const queue = through ? whole.slice(0, through(whole)) : whole;
     const work = await repo.work(studioId, queue.map((c) => c.id));
     const input: ForecastInput = {
       timeZone: cap.timeZone,
@@ -119,7 +166,7 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
     const names = new Map(cap.painters.map((p) => [p.id, p.name]));
     const strangers = [...new Set(work.figures.map((f) => f.painter_id).filter((id): id is number => id !== null && !names.has(id)))];
     for (const u of await repo.userNames(strangers)) names.set(u.id, u.name);
-    return {
+    const result: RunResult = {
       input,
       forecast: forecast(input),
       today: localDateOf(nowDate.getTime(), cap.timeZone),
@@ -129,6 +176,7 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
       names,
       queueLength: whole.length,
     };
+    return { whole, result };
   }
 
   function remainingOf(stages: StageWork[]) {
