@@ -55,9 +55,9 @@ function summaryOf(r: CommissionRow, totals: ProgressTotals, figureCount: number
 }
 
 const listTotals = (r: CommissionListRow): ProgressTotals => ({
-  stages: num(r.stages),
-  skipped: num(r.skipped),
-  done: num(r.done),
+  stages: num(r.stage_count),
+  skipped: num(r.stages_skipped),
+  done: num(r.stages_done),
   minutesTotal: num(r.minutes_total),
   minutesDone: num(r.minutes_done),
 });
