@@ -51,6 +51,30 @@ describe('the demo scenario', () => {
     expect(all.some((c: { stage: { waitUntil: string | null } | null }) => c.stage?.waitUntil && c.stage.waitUntil > sw.clock.now().toISOString())).toBe(true);
   });
 
+  it("every board card agrees with its figure's own view: current stage, its wait, progress", async () => {
+    // The board sums and picks in SQL; the commission page builds each figure from all its stages.
+    type Stage = { id: number; name: string; status: string; position: number; waitUntil: string | null; hazards: string[] };
+    type FigureView = { id: number; name: string; quantity: number; stages: Stage[]; progress: unknown; currentStageId: number | null; painter: unknown };
+    type Card = { figureId: number; figureName: string; quantity: number; commission: { id: number }; stage: { id: number; name: string; status: string; hazards: string[]; waitUntil: string | null } | null; progress: unknown; painter: unknown };
+    const owner = await signIn('owner@demo.test');
+    const cards: Card[] = (await owner.get(`/api/studios/${studioId}/board`)).body.columns.flatMap((c: { cards: Card[] }) => c.cards);
+    expect(cards.length).toBeGreaterThan(5);
+    const now = sw.clock.now().toISOString();
+    const views = new Map<number, FigureView>();
+    for (const commissionId of new Set(cards.map((c) => c.commission.id))) {
+      for (const f of (await owner.get(`/api/studios/${studioId}/commissions/${commissionId}`)).body.figures as FigureView[]) views.set(f.id, f);
+    }
+    for (const card of cards) {
+      const f = views.get(card.figureId)!;
+      expect(card, f.name).toMatchObject({ figureName: f.name, quantity: f.quantity, progress: f.progress, painter: f.painter });
+      const current = f.stages.find((s) => s.id === f.currentStageId) ?? null;
+      expect(card.stage?.id ?? null, f.name).toBe(current?.id ?? null);
+      if (!current) continue;
+      const waits = f.stages.filter((s) => s.position < current.position && s.waitUntil && s.waitUntil > now).map((s) => s.waitUntil!);
+      expect(card.stage, f.name).toEqual({ id: current.id, name: current.name, status: current.status, hazards: current.hazards, waitUntil: waits.sort().at(-1) ?? null });
+    }
+  });
+
   it('each demo client sees only their own commissions', async () => {
     for (const [email, name] of [
       ['client@demo.test', 'Priya Castellane'],

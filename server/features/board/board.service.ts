@@ -1,15 +1,15 @@
-import { currentStage, progressOf, waitUntil } from '../../../shared/commission-lifecycle';
+import { progressFromTotals, waitUntil } from '../../../shared/commission-lifecycle';
 import { sortHazards } from '../../../shared/hazards';
 import type { Board, BoardCard, BoardQuery } from '../../../shared/schemas/commissions';
 import type { Clock } from '../../lib/clock';
 import type { StudioSetupService } from '../studio-setup/studio-setup.service';
 import { parseKeys } from '../studio-setup/studio-setup.repository';
-import type { BoardRepository, BoardStageRow } from './board.repository';
+import type { BoardRepository, BoardStageRow, BoardWaitRow } from './board.repository';
 
 /** The end of a wait from an earlier done stage that still runs: the figure should not go on before it. */
-function waitingUntil(stages: BoardStageRow[], position: number, now: Date): string | null {
+function waitingUntil(waits: BoardWaitRow[], position: number, now: Date): string | null {
   let until: string | null = null;
-  for (const s of stages) {
+  for (const s of waits) {
     if (s.position >= position || s.status !== 'done') continue;
     const end = waitUntil(s.done_at, s.wait_minutes);
     if (!end || new Date(end) <= now) continue;
@@ -20,9 +20,10 @@ function waitingUntil(stages: BoardStageRow[], position: number, now: Date): str
 
 /**
  * The bench board reads what its cards show and no more: a page of figures with their commission and
- * painter (one query and its count), the page's stages (one query), the studio's stage template. It does
- * not build whole figure views (every stage with who did it and its logged time), which the commission
- * page needs and a card does not; the card's progress is the same sum over the same stages.
+ * painter (one query and its count), the page's stage totals, current stages and waits (three grouped or
+ * filtered queries), the studio's stage template. It does not build whole figure views (every stage with
+ * who did it and its logged time), which the commission page needs and a card does not; the card's
+ * progress is the same sum over the same stages.
  */
 export function boardService(deps: { repo: BoardRepository; setup: StudioSetupService; clock: Clock }) {
   const { repo, setup, clock } = deps;
@@ -30,16 +31,21 @@ export function boardService(deps: { repo: BoardRepository; setup: StudioSetupSe
     /** Columns are the template's stages in order, then any stage no longer in the template, then "done". */
     async get(studioId: number, q: BoardQuery): Promise<Board> {
       const { rows, total } = await repo.figures(studioId, q);
-      const stagesOf = new Map<number, BoardStageRow[]>(rows.map((r) => [r.figure_id, []]));
-      for (const s of rows.length ? await repo.stages(studioId, rows.map((r) => r.figure_id)) : []) stagesOf.get(s.figure_id)!.push(s);
+      const ids = rows.map((r) => r.figure_id);
+      const [totals, current, waits] = ids.length ? await Promise.all([repo.totals(studioId, ids), repo.current(studioId, ids), repo.waits(studioId, ids)]) : [[], [], []];
+      const totalsOf = new Map(totals.map((t) => [Number(t.figure_id), t]));
+      const currentOf = new Map<number, BoardStageRow>();
+      for (const s of current) if (!currentOf.has(s.figure_id)) currentOf.set(s.figure_id, s); // the lowest id if two share a place
+      const waitsOf = new Map<number, BoardWaitRow[]>();
+      for (const w of waits) waitsOf.set(w.figure_id, [...(waitsOf.get(w.figure_id) ?? []), w]);
 
       const columns = new Map<string, { key: string; name: string; cards: BoardCard[] }>();
       for (const s of await setup.template(studioId)) columns.set(s.key, { key: s.key, name: s.name, cards: [] });
       const done: BoardCard[] = [];
       const now = clock.now();
       for (const r of rows) {
-        const stages = stagesOf.get(r.figure_id)!;
-        const current = currentStage(stages);
+        const t = totalsOf.get(r.figure_id);
+        const current = currentOf.get(r.figure_id) ?? null;
         const card: BoardCard = {
           figureId: r.figure_id,
           figureName: r.name,
@@ -51,9 +57,15 @@ export function boardService(deps: { repo: BoardRepository; setup: StudioSetupSe
             name: current.name,
             status: current.status,
             hazards: sortHazards(parseKeys(current.hazards)),
-            waitUntil: waitingUntil(stages, current.position, now),
+            waitUntil: waitingUntil(waitsOf.get(r.figure_id) ?? [], current.position, now),
           },
-          progress: progressOf(stages.map((s) => ({ status: s.status, estimateMinutes: s.estimate_minutes }))),
+          progress: progressFromTotals({
+            stages: Number(t?.stages ?? 0),
+            skipped: Number(t?.skipped ?? 0),
+            done: Number(t?.done ?? 0),
+            minutesTotal: Number(t?.minutes_total ?? 0),
+            minutesDone: Number(t?.minutes_done ?? 0),
+          }),
         };
         if (!current) {
           done.push(card);
