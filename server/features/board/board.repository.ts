@@ -38,10 +38,12 @@ export function boardRepository(db: Db) {
      * many there are.
      */
     figures(studioId: number, q: BoardQuery): Promise<{ rows: BoardFigureRow[]; total: number }> {
-      const qb = db('figures as f')
-        .join('commissions as c', 'c.id', 'f.commission_id')
+      // Read from the studio's board commissions (the (studio, status) index) to their figures: starting from
+      // the figures walks every figure the studio ever had.
+      const qb = db('commissions as c')
+        .join('figures as f', (j) => j.on('f.commission_id', '=', 'c.id').andOn('f.studio_id', '=', 'c.studio_id'))
         .leftJoin('users as p', 'p.id', 'f.painter_id')
-        .where('f.studio_id', studioId)
+        .where('c.studio_id', studioId)
         .whereIn('c.status', boardStatuses)
         .select('f.id as figure_id', 'f.name', 'f.quantity', 'f.painter_id', 'p.name as painter_name', 'c.id as commission_id', 'c.title', 'c.due_date', 'c.priority')
         .orderByRaw("case when c.due_date is null then 1 else 0 end, c.due_date, case c.priority when 'high' then 0 when 'normal' then 1 else 2 end, c.id, f.id");
