@@ -55,6 +55,23 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
 
   /** What the forecast plans for one person: stages today and this week, their hours, their running timer. */
   async function bench(studioId: number, userId: number, sf: StudioForecast): Promise<BenchSummary> {
+    const timer = await repo.runningTimer(studioId, userId);
+    return {
+      ...schedule.derived(sf, `bench:${userId}`, () => planned(userId, sf)),
+      timer: timer
+        ? {
+            entryId: timer.id,
+            startedAt: timer.started_at,
+            stage: { id: timer.stage_id, name: timer.stage_name },
+            figure: { id: timer.figure_id, name: timer.figure_name },
+            commission: { id: timer.commission_id, title: timer.title },
+          }
+        : null,
+    };
+  }
+
+  /** The forecast's part of a person's bench: the same for every request answered from one run. */
+  function planned(userId: number, sf: StudioForecast): Omit<BenchSummary, 'timer'> {
     const tz = sf.input.timeZone;
     const nowMs = parseInstant(sf.input.now);
     const w = isoWeek(sf.today);
@@ -97,7 +114,6 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
     const week = dated.filter((x) => x.date >= weekStart && x.date <= weekEnd).map((x) => x.b);
     let capacity = 0;
     capacityHours(sf, userId, weekStart, weekEnd, nowMs, (_d, hrs) => (capacity += hrs));
-    const timer = await repo.runningTimer(studioId, userId);
     return {
       today: sf.today,
       timeZone: tz,
@@ -105,19 +121,11 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
       todayStages: group(dated.filter((x) => x.date === sf.today).map((x) => x.b)),
       weekStages: group(week),
       weekHours: { capacity: round2(capacity), planned: round2(week.reduce((n, b) => n + (parseInstant(b.end) - parseInstant(b.start)) / HOUR_MS, 0)) },
-      timer: timer
-        ? {
-            entryId: timer.id,
-            startedAt: timer.started_at,
-            stage: { id: timer.stage_id, name: timer.stage_name },
-            figure: { id: timer.figure_id, name: timer.figure_name },
-            commission: { id: timer.commission_id, title: timer.title },
-          }
-        : null,
     };
   }
 
-  async function owner(actor: Actor, sf: StudioForecast): Promise<OwnerDashboard> {
+  /** The owner's home parts that come from the forecast alone: the same for every request answered from one run. */
+  function studioOutlook(sf: StudioForecast): { utilisation: UtilisationWeek[]; atRisk: AtRiskCommission[] } {
     const tz = sf.input.timeZone;
     const nowMs = parseInstant(sf.input.now);
     const weeks = timelineWeeks(sf.today, 8);
@@ -147,7 +155,12 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
       .sort((a, b) => (a.slackDays ?? -Infinity) - (b.slackDays ?? -Infinity) || a.queuePosition! - b.queuePosition!)
       .slice(0, 5)
       .map((c) => ({ id: c.id, title: c.title, client: c.client, dueDate: c.dueDate!, finishDate: c.finishDate, slackDays: c.slackDays, late: c.late, unscheduled: c.unscheduled !== null }));
+    return { utilisation: util, atRisk };
+  }
 
+  async function owner(actor: Actor, sf: StudioForecast): Promise<OwnerDashboard> {
+    const tz = sf.input.timeZone;
+    const { utilisation, atRisk } = schedule.derived(sf, 'owner-outlook', () => studioOutlook(sf));
     const [statusRows, overdue, unpaid, earnings, myBench] = await Promise.all([
       repo.byStatus(actor.studioId),
       repo.overdueStages(actor.studioId, sf.today, 10),
@@ -163,7 +176,7 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
       timeZone: tz,
       currency: earnings.currency,
       byStatus: statusRows.map((r) => ({ status: r.status, count: Number(r.n) })),
-      utilisation: util,
+      utilisation,
       overdueStages: {
         total: overdue.total,
         items: overdue.items.map((o) => ({

@@ -179,12 +179,34 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
     return { whole, result };
   }
 
+  /** Values worked out from a run, kept beside it: a run never changes, so they hold for as long as it is used. */
+  const derivedOf = new WeakMap<StudioForecast, Map<string, unknown>>();
+
+  /**
+   * `compute()`'s value for this run and `key`, worked out once per run and frozen (a kept run is answered
+   * to every request of its minute and version, and so is what is derived from it).
+   */
+  function derived<T>(sf: StudioForecast, key: string, compute: () => T): T {
+    let values = derivedOf.get(sf);
+    if (!values) derivedOf.set(sf, (values = new Map()));
+    if (!values.has(key)) values.set(key, deepFreeze(compute()));
+    return values.get(key) as T;
+  }
+
   function remainingOf(stages: StageWork[]) {
     return minutesToHours(Math.round(stages.reduce((n, s) => n + s.remainingHours * HOUR_MIN, 0)));
   }
 
-  /** The forecast of each commission (of those at the places `only`, if given) joined with its title, client, figures and place in the queue. */
+  /**
+   * The forecast of each commission (of those at the places `only`, if given) joined with its title,
+   * client, figures and place in the queue. The whole queue for the team is worked out once per run.
+   */
   function describe(sf: StudioForecast, forClient: boolean, only?: number[]): ScheduledCommission[] {
+    if (!forClient && !only) return derived(sf, 'describe', () => describeAt(sf, false));
+    return describeAt(sf, forClient, only);
+  }
+
+  function describeAt(sf: StudioForecast, forClient: boolean, only?: number[]): ScheduledCommission[] {
     const stageNames = new Map(sf.work.stages.map((s) => [s.id, s.name]));
     const figureRows = new Map(sf.work.figures.map((f) => [f.id, f]));
     const places = only ?? sf.forecast.commissions.map((_, i) => i);
@@ -278,6 +300,7 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
   return {
     run,
     describe,
+    derived,
     view,
 
     /** Puts the queue in a new order; the list must hold exactly the commissions in the queue now. */
