@@ -83,4 +83,12 @@ describe('a kept forecast is read-only', () => {
     expect(v.names.get(1)).toEqual({ name: 'Ada' });
     expect(v.queue[0].figures[0].id).toBe(2);
   });
+
+  it('freezes a value that refers back to itself, and what two parts share', () => {
+    const shared = { id: 7 };
+    const v: { self?: unknown; a: { id: number }[]; b: { id: number }[] } = { a: [shared], b: [shared] };
+    v.self = v;
+    deepFreeze(v);
+    expect(Object.isFrozen(v) && Object.isFrozen(v.a) && Object.isFrozen(v.b) && Object.isFrozen(shared)).toBe(true);
+  });
 });
