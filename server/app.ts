@@ -1,4 +1,3 @@
-import crypto from 'node:crypto';
 import fs from 'node:fs';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -8,7 +7,6 @@ import helmet from 'helmet';
 import { Passport } from 'passport';
 import { Strategy as LocalStrategy } from 'passport-local';
 import pino from 'pino';
-import { pinoHttp } from 'pino-http';
 import type { Config } from './config';
 import { DEMO_PASSWORD } from './config';
 import { migrate, openDb } from './lib/db';
@@ -16,8 +14,9 @@ import { AppError, errors } from './lib/errors';
 import { createMailer } from './lib/mail/mailer';
 import { allowFactory, type AuthUser } from './lib/policy';
 import { listRoutes, routeTable } from './lib/routes';
+import { requestLog, requestSerializer } from './lib/request-log';
 import { createSessionStore } from './lib/session-store';
-import { accountRef, hideTokens, LOGGED_REFUSALS, REDACTED, requester } from './lib/security-log';
+import { accountRef, LOGGED_REFUSALS, REDACTED, requester } from './lib/security-log';
 import { safeEqual } from './lib/tokens';
 import { startMailCapture } from './fakes/mail-capture';
 import { startPaymentsFake } from './fakes/payments-fake';
@@ -133,7 +132,7 @@ const CSRF_EXEMPT = new Set(['/api/webhooks/payments']);
 
 export async function createApp(config: Config) {
   // Secrets never reach the log: redacted where they could appear, and requests are logged by method and path only.
-  const logOptions = { level: config.logLevel, redact: { paths: REDACTED, censor: '[hidden]' } };
+  const logOptions = { level: config.logLevel, redact: { paths: REDACTED, censor: '[hidden]' }, serializers: { req: requestSerializer, err: pino.stdSerializers.err } };
   const log = config.logDestination ? pino(logOptions, config.logDestination) : pino(logOptions);
   const db = openDb(config);
   await migrate(db);
@@ -286,21 +285,7 @@ export async function createApp(config: Config) {
   const app = express();
   app.disable('x-powered-by');
   app.set('trust proxy', config.trustProxy ? 1 : false);
-  app.use(
-    pinoHttp({
-      logger: log,
-      serializers: { req: (r: { id: unknown; method: string; url: string; remoteAddress?: string }) => ({ id: r.id, method: r.method, url: hideTokens(r.url), remoteAddress: r.remoteAddress }) },
-      genReqId: (_req, res) => {
-        const id = crypto.randomUUID();
-        res.setHeader('x-request-id', id);
-        return id;
-      },
-      autoLogging: config.logLevel === 'debug' || config.logLevel === 'trace',
-      // req.log carries only the request id (a full child logger per request costs more than many routes do);
-      // the lines that need the request name it themselves.
-      quietReqLogger: true,
-    }),
-  );
+  app.use(requestLog(log, { eachRequest: config.logLevel === 'debug' || config.logLevel === 'trace' }));
   app.use(
     helmet({
       contentSecurityPolicy: {
