@@ -73,14 +73,20 @@ export function calendarFeedService(deps: { db: Db; repo: CalendarFeedRepository
       const feed = await repo.byHash(hashToken(token));
       if (!feed || (feed.role !== 'owner' && feed.role !== 'painter')) throw errors.notFound('That calendar');
       const sf = await schedule.run(feed.studio_id);
-      let commissions = schedule.describe(sf, false);
-      if (feed.role === 'painter') commissions = commissions.filter((c) => c.figures.some((f) => f.painter?.id === feed.user_id));
       const now = clock.now();
-      const { error, value } = createEvents(feedEvents(feed.studio_id, commissions, now.getTime()), {
-        productId: '-//Sablework//Studio calendar//EN',
-        calName: icsText(`${feed.studio_name} · Sablework`),
+      // Written once per forecast kept (a studio's version and minute) for each person's view: ics checks every
+      // event against its schema, which for a whole queue costs far more than the rest of the request.
+      const value = schedule.derived(sf, `ics:${feed.role}:${feed.user_id}:${feed.studio_name}`, () => {
+        let commissions = schedule.describe(sf, false);
+        if (feed.role === 'painter') commissions = commissions.filter((c) => c.figures.some((f) => f.painter?.id === feed.user_id));
+        // stamped with the moment the forecast is worked out as of (the start of the minute), like everything in it
+        const events = createEvents(feedEvents(feed.studio_id, commissions, new Date(sf.input.now).getTime()), {
+          productId: '-//Sablework//Studio calendar//EN',
+          calName: icsText(`${feed.studio_name} · Sablework`),
+        });
+        if (events.error || events.value === null) throw events.error ?? new Error('The calendar could not be written.');
+        return events.value;
       });
-      if (error || value === null) throw error ?? new Error('The calendar could not be written.');
       await repo.touch(feed.id, iso(now));
       return value;
     },
