@@ -19,8 +19,8 @@ export type CommissionRow = {
   updated_at: string;
 };
 
-/** A commission with the totals its row keeps (migrations/20270120120000-commission-totals.ts). */
-export type CommissionListRow = CommissionRow & {
+/** A commission as its list shows it (no brief or notes), with the totals its row keeps (migrations/20270120120000-commission-totals.ts). */
+export type CommissionListRow = Omit<CommissionRow, 'brief' | 'scheme_notes' | 'status_before_hold' | 'cancel_reason'> & {
   figure_count: number;
   model_count: number;
   stage_count: number;
@@ -45,6 +45,8 @@ const columns = [
   'c.created_at',
   'c.updated_at',
 ];
+/** What a list row shows: the long texts stay out of a page of fifty. */
+const listColumns = ['c.id', 'c.client_id', 'cl.name as client_name', 'c.title', 'c.due_date', 'c.priority', 'c.status', 'c.created_at', 'c.updated_at'];
 const totalColumns = ['c.figure_count', 'c.model_count', 'c.stage_count', 'c.stages_skipped', 'c.stages_done', 'c.minutes_total', 'c.minutes_done'];
 
 const likeEscaped = (q: string) => `%${q.toLowerCase().replace(/[\\%_]/g, (ch) => `\\${ch}`)}%`;
@@ -86,7 +88,7 @@ export function commissionsRepository(db: Db) {
       };
       return pageRows<CommissionListRow>(
         filter(base(db, studioId))
-          .select([...columns, ...totalColumns])
+          .select([...listColumns, ...totalColumns])
           .orderBy([
             { column: 'c.created_at', order: 'desc' },
             { column: 'c.id', order: 'desc' },

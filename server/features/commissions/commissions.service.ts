@@ -38,7 +38,7 @@ export type StatusChangeGuard = (
   change: { studioId: number; commissionId: number; userId: number | null; from: CommissionStatus; to: CommissionStatus; override: { reason: string } | null },
 ) => Promise<Record<string, unknown> | void>;
 
-function summaryOf(r: CommissionRow, totals: ProgressTotals, figureCount: number, modelCount: number): CommissionSummary {
+function summaryOf(r: Pick<CommissionRow, 'id' | 'title' | 'status' | 'priority' | 'due_date' | 'client_id' | 'client_name' | 'created_at' | 'updated_at'>, totals: ProgressTotals, figureCount: number, modelCount: number): CommissionSummary {
   return {
     id: r.id,
     title: r.title,
