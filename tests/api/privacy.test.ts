@@ -424,6 +424,14 @@ describe('erase', () => {
     expect((await sw.db('clients').where({ id: clientId }).first()).name).toBe(`Erased client ${clientId}`);
   });
 
+  it('takes no new commission for the placeholder: the error names the client field', async () => {
+    const before = await sw.db('commissions').where({ client_id: clientId }).count({ n: '*' }).first();
+    const res = await a.owner.post(`${A()}/commissions`, { clientId, title: 'Another warband' });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.clientId).toMatch(/erased/);
+    expect(await sw.db('commissions').where({ client_id: clientId }).count({ n: '*' }).first()).toEqual(before);
+  });
+
   it('still exports the placeholder with the kept invoices', async () => {
     const res = await exportZip(a.owner, a.studioId, clientId);
     expect(res.status).toBe(200);

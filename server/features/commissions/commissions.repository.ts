@@ -55,7 +55,9 @@ const likeEscaped = (q: string) => `%${q.toLowerCase().replace(/[\\%_]/g, (ch) =
 export function commissionsRepository(db: Db) {
   const base = (trx: Db, studioId: number) => trx('commissions as c').join('clients as cl', 'cl.id', 'c.client_id').where('c.studio_id', studioId);
   return {
-    clientExists: (studioId: number, clientId: number, trx: Db = db) => trx('clients').where({ studio_id: studioId, id: clientId }).first('id').then(Boolean),
+    /** The studio's client, if it is one, and whether it was erased (a placeholder kept for invoices only). */
+    client: (studioId: number, clientId: number, trx: Db = db) =>
+      trx('clients').where({ studio_id: studioId, id: clientId }).first('id', 'erased_at') as Promise<{ id: number; erased_at: string | null } | undefined>,
     async insert(trx: Db, row: Record<string, unknown>) {
       const [r] = await trx('commissions').insert(row).returning('id');
       return typeof r === 'object' ? (r.id as number) : (r as number);

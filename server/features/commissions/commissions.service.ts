@@ -133,7 +133,9 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
 
     async create(actor: Actor, input: CreateCommissionInput) {
       const { studioId } = actor;
-      if (!(await repo.clientExists(studioId, input.clientId))) throw errors.field('clientId', 'Choose a client of this studio.');
+      const client = await repo.client(studioId, input.clientId);
+      if (!client) throw errors.field('clientId', 'Choose a client of this studio.');
+      if (client.erased_at) throw errors.field('clientId', 'This client was erased; their placeholder only keeps old invoices. Choose another client or add them again.');
       const id = await db.transaction(async (trx) => {
         const t = now();
         const commissionId = await repo.insert(trx, {
