@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { startTestApp, twoStudios, type TestApp } from '../support/app';
+import { startTestApp, twoStudios, withQueries, type TestApp } from '../support/app';
 
 let sw: TestApp;
 let s: Awaited<ReturnType<typeof twoStudios>>;
@@ -297,12 +297,8 @@ describe('the list', () => {
 
   it('reads the page in a fixed number of queries, however many commissions it holds', async () => {
     const count = async (limit: number) => {
-      const seen: string[] = [];
-      const onQuery = (q: { sql: string }) => seen.push(q.sql);
-      sw.db.on('query', onQuery);
-      await s.a.owner.get(`${A}/commissions?limit=${limit}`).expect(200);
-      sw.db.off('query', onQuery);
-      return seen.filter((sql) => /commissions/.test(sql)).length;
+      const { sql } = await withQueries(sw.db, () => s.a.owner.get(`${A}/commissions?limit=${limit}`).expect(200));
+      return sql.filter((q) => /commissions/.test(q)).length;
     };
     const one = await count(1);
     const many = await count(200);

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { userId } from '../support/fixtures';
-import { Caller, PASSWORD, signInAs, startTestApp, twoStudios, type TestApp } from '../support/app';
+import { Caller, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type TestApp } from '../support/app';
 import { secondPainter } from '../support/fixtures';
 
 // The studio forecast is kept in memory per studio under the schedule version the database moves on
@@ -96,17 +96,7 @@ async function afterWrite(write: () => Promise<unknown>) {
 }
 
 /** SQL of the queries `run` makes on the cached instance's database. */
-async function queriesOf(run: () => Promise<unknown>) {
-  const sql: string[] = [];
-  const on = (q: { sql: string }) => sql.push(q.sql);
-  cached.db.on('query', on);
-  try {
-    await run();
-  } finally {
-    cached.db.off('query', on);
-  }
-  return sql;
-}
+const queriesOf = async (run: () => Promise<unknown>) => (await withQueries(cached.db, run)).sql;
 /** The forecast's own reads (the queue, hours, days off, figures, stages, closed time), quoted either engine's way. */
 const q = '[`"]';
 const forecastReadPatterns = [`${q}queue_position${q}`, `from ${q}capacity_hours${q}`, `from ${q}capacity_days_off${q}`, `${q}painter_id${q}, ${q}position${q} from ${q}figures${q}`, `${q}wait_minutes${q}`, `sum\\(${q}minutes${q}\\)`].map(

@@ -1,5 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { Caller, startTestApp, twoStudios, type TestApp } from '../support/app';
+import { Caller, startTestApp, twoStudios, withQueries, type TestApp } from '../support/app';
 import { images, upload } from '../support/fixtures';
 
 /**
@@ -229,14 +229,8 @@ async function queriesOf(ctx: Ctx, e: ListEndpoint) {
   const sql: string[] = [];
   let res!: { status: number; body: unknown; text: string; headers: Record<string, string> };
   for (let run = 0; run < 3; run++) {
-    const seen: string[] = [];
-    const onQuery = (q: { sql: string }) => seen.push(q.sql);
-    sw.db.on('query', onQuery);
-    try {
-      res = await ctx.callers[e.as].get(urlOf(ctx, e.route, e.query));
-    } finally {
-      sw.db.off('query', onQuery);
-    }
+    const { value, sql: seen } = await withQueries(sw.db, () => ctx.callers[e.as].get(urlOf(ctx, e.route, e.query)));
+    res = value;
     best = Math.min(best, seen.length);
     sql.push(...seen);
     if (process.env.QUERY_COUNT_SQL && e.route.includes(process.env.QUERY_COUNT_SQL)) console.log(seen.join('\n'));

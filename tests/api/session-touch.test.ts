@@ -3,7 +3,7 @@
 // Date alone is faked (timers stay real, so supertest still runs), so "a minute later" is exact.
 import { afterAll, afterEach, beforeAll, describe, expect, it, vi } from 'vitest';
 import { TOUCH_EVERY_MS } from '../../server/lib/session-store';
-import { signInAs, signUp, startTestApp, type TestApp } from '../support/app';
+import { signInAs, signUp, startTestApp, withQueries, type TestApp } from '../support/app';
 
 let sw: TestApp;
 beforeAll(async () => {
@@ -15,17 +15,8 @@ afterEach(() => vi.useRealTimers());
 
 /** The session writes (insert, update or delete of `sessions`) a block of requests makes. */
 async function sessionWrites(fn: () => Promise<unknown>) {
-  const writes: string[] = [];
-  const onQuery = (q: { sql: string }) => {
-    if (/^\s*(insert|update|delete)\b[^;]*\bsessions\b/i.test(q.sql)) writes.push(q.sql);
-  };
-  sw.db.on('query', onQuery);
-  try {
-    await fn();
-  } finally {
-    sw.db.off('query', onQuery);
-  }
-  return writes;
+  const { sql } = await withQueries(sw.db, fn);
+  return sql.filter((s) => /^\s*(insert|update|delete)\b[^;]*\bsessions\b/i.test(s));
 }
 
 const storedExpiry = async () => (await sw.db('sessions').select('expired')).map((r) => new Date(r.expired as string).getTime());

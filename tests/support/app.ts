@@ -175,3 +175,15 @@ export async function twoStudios(sw: TestApp) {
   };
   return { a: await make('a'), b: await make('b') };
 }
+
+/** Runs `fn` and gives back its value with the SQL of every query `db` made meanwhile, in order. */
+export async function withQueries<T>(db: SableworkApp['db'], fn: () => Promise<T>): Promise<{ value: T; sql: string[] }> {
+  const sql: string[] = [];
+  const onQuery = (q: { sql: string }) => sql.push(q.sql);
+  db.on('query', onQuery);
+  try {
+    return { value: await fn(), sql };
+  } finally {
+    db.off('query', onQuery);
+  }
+}
