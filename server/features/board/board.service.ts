@@ -37,7 +37,11 @@ export function boardService(deps: { repo: BoardRepository; setup: StudioSetupSe
       const currentOf = new Map<number, BoardStageRow>();
       for (const s of current) if (!currentOf.has(s.figure_id)) currentOf.set(s.figure_id, s); // the lowest id if two share a place
       const waitsOf = new Map<number, BoardWaitRow[]>();
-      for (const w of waits) waitsOf.set(w.figure_id, [...(waitsOf.get(w.figure_id) ?? []), w]);
+      for (const w of waits) {
+        const list = waitsOf.get(w.figure_id);
+        if (list) list.push(w);
+        else waitsOf.set(w.figure_id, [w]);
+      }
 
       const columns = new Map<string, { key: string; name: string; cards: BoardCard[] }>();
       for (const s of await setup.template(studioId)) columns.set(s.key, { key: s.key, name: s.name, cards: [] });
