@@ -33,7 +33,18 @@ async function freePort() {
   return port;
 }
 
-type Result = { name: string; connections: number; rps: number; p50: number; p99: number; errors: number; non2xx: number; cpuMs: number | null };
+type Result = { name: string; connections: number; rps: number; p50: number; p99: number; p99Steady: number; errors: number; non2xx: number; cpuMs: number | null };
+
+/**
+ * The latency at fraction q of the sorted answers (nearest rank). The steady-state figures leave out each
+ * connection's first answer: autocannon opens its connections as a run starts, and a saturated Node server
+ * takes up a new connection's first request about once per turn of its event loop, so with 50 connections the
+ * last first answers wait dozens of turns. Those 50 answers are 1–3 % of a run, enough to set its p99; once
+ * open, every connection is served in turn. Both figures are printed.
+ */
+function percentile(sorted: number[], q: number) {
+  return sorted.length ? sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil(q * sorted.length) - 1))] : Number.NaN;
+}
 
 /** The server process behind each address (host:port), so a measurement can read the CPU time it used. */
 const serverPids = new Map<string, number>();
@@ -72,11 +83,20 @@ async function measure(name: string, url: string, connections: number, headers: 
   await settle(url, headers);
   const pid = serverPids.get(new URL(url).host);
   const cpuBefore = cpuTimeMs(pid);
-  const r = await autocannon({ url, connections, duration: seconds, headers, pipelining: 1 });
+  const opened = new Set<unknown>();
+  const steady: number[] = [];
+  const r = await new Promise<autocannon.Result>((resolve, reject) => {
+    const run = autocannon({ url, connections, duration: seconds, headers, pipelining: 1 }, (err, result) => (err ? reject(err) : resolve(result)));
+    run.on('response', (client, _status, _bytes, ms) => {
+      if (opened.has(client)) steady.push(ms);
+      else opened.add(client);
+    });
+  });
   const cpuAfter = cpuTimeMs(pid);
+  steady.sort((a, b) => a - b);
   // what the server itself spent per answer, whatever autocannon and the rest of the machine took
   const cpuMs = cpuBefore !== null && cpuAfter !== null && r.requests.total > 0 ? (cpuAfter - cpuBefore) / r.requests.total : null;
-  return { name, connections, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, errors: r.errors + r.timeouts, non2xx: r.non2xx, cpuMs };
+  return { name, connections, rps: r.requests.average, p50: r.latency.p50, p99: r.latency.p99, p99Steady: Math.round(percentile(steady, 0.99)), errors: r.errors + r.timeouts, non2xx: r.non2xx, cpuMs };
 }
 
 const loadAverage = () => os.loadavg().map((l) => l.toFixed(2)).join(', ');
@@ -185,8 +205,8 @@ function listEndpoints(ids: ReturnType<typeof benchIds>): Endpoint[] {
 
 const cpu = (r: Result) => (r.cpuMs === null ? '–' : r.cpuMs.toFixed(2));
 const table = (rows: Result[]) => {
-  const lines = ['| endpoint | conn | req/s | p50 ms | p99 ms | server CPU ms/req | errors | non-2xx |', '|---|---:|---:|---:|---:|---:|---:|---:|'];
-  for (const r of rows) lines.push(`| ${r.name} | ${r.connections} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${cpu(r)} | ${r.errors} | ${r.non2xx} |`);
+  const lines = ['| endpoint | conn | req/s | p50 ms | p99 ms | p99 ms, connections open | server CPU ms/req | errors | non-2xx |', '|---|---:|---:|---:|---:|---:|---:|---:|---:|'];
+  for (const r of rows) lines.push(`| ${r.name} | ${r.connections} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${r.p99Steady} | ${cpu(r)} | ${r.errors} | ${r.non2xx} |`);
   return lines.join('\n');
 };
 
@@ -273,12 +293,12 @@ async function main() {
     }
     console.log('\n## Every list endpoint, 1,000,000 stage rows (aim p99 ≤ 50 ms at 50 connections)\n');
     const listTable = [
-      '| endpoint | 1 conn p50 ms | 1 conn p99 ms | 50 conn req/s | 50 conn p50 ms | 50 conn p99 ms | server CPU ms/req | errors | non-2xx |',
-      '|---|---:|---:|---:|---:|---:|---:|---:|---:|',
+      '| endpoint | 1 conn p50 ms | 1 conn p99 ms | 50 conn req/s | 50 conn p50 ms | 50 conn p99 ms | 50 conn p99 ms, connections open | server CPU ms/req | errors | non-2xx |',
+      '|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|',
     ];
-    for (const r of listRows) listTable.push(`| ${r.name} | ${r.alone.p50} | ${r.alone.p99} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${cpu(r)} | ${r.errors + r.alone.errors} | ${r.non2xx + r.alone.non2xx} |`);
+    for (const r of listRows) listTable.push(`| ${r.name} | ${r.alone.p50} | ${r.alone.p99} | ${r.rps.toFixed(0)} | ${r.p50} | ${r.p99} | ${r.p99Steady} | ${cpu(r)} | ${r.errors + r.alone.errors} | ${r.non2xx + r.alone.non2xx} |`);
     console.log(listTable.join('\n'));
-    const slow = listRows.filter((r) => r.p99 > 50);
+    const slow = listRows.filter((r) => r.p99 > 50 || r.p99Steady > 50);
     console.log(slow.length ? `- over the aim at 50 connections: ${slow.map((r) => r.name).join(', ')}` : '- all within the aim');
     // Fifty requests always in flight on one process: p99 is about 50 ÷ (requests a second), whatever one costs alone.
     console.log(`- at 50 connections a p99 of 50 ms needs about ${(50 / 0.05).toFixed(0)} requests a second; bare Express hello made ${at50('bare Express hello').toFixed(0)} here`);
