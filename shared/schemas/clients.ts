@@ -1,5 +1,5 @@
 import { z } from 'zod';
-import { email, optionalText, personName } from './common';
+import { email, optionalText, pageQuery, personName } from './common';
 
 export const address = z.object({
   line1: optionalText(200),
@@ -45,4 +45,12 @@ export type Client = {
   hasAccount: boolean;
   invitedAt: string | null;
   createdAt: string;
+  /** Set when the client was erased: the record is a placeholder that only keeps old invoices. */
+  erasedAt: string | null;
 };
+
+/** The clients list: a page, a search, and whether erased placeholders are listed (pickers for new work hide them). */
+export const clientListQuery = pageQuery.extend({
+  erased: z.enum(['shown', 'hidden']).default('shown'),
+});
+export type ClientListQuery = z.infer<typeof clientListQuery>;

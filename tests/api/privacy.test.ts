@@ -432,6 +432,18 @@ describe('erase', () => {
     expect(await sw.db('commissions').where({ client_id: clientId }).count({ n: '*' }).first()).toEqual(before);
   });
 
+  it('lists the placeholder as erased, and leaves it out when the picker for new work asks', async () => {
+    const all = ok(await a.owner.get(`${A()}/clients?limit=200`));
+    const listed = all.items.find((c: { id: number }) => c.id === clientId);
+    expect(listed?.erasedAt).toBeTruthy();
+    expect(all.items.find((c: { id: number }) => c.id === otherClientId)?.erasedAt).toBeNull();
+    const forNewWork = ok(await a.owner.get(`${A()}/clients?limit=200&erased=hidden`));
+    expect(forNewWork.items.map((c: { id: number }) => c.id)).not.toContain(clientId);
+    expect(forNewWork.items.map((c: { id: number }) => c.id)).toContain(otherClientId);
+    expect(forNewWork.total).toBe(all.total - 1);
+    expect((await a.owner.get(`${A()}/clients?erased=maybe`)).status).toBe(400);
+  });
+
   it('still exports the placeholder with the kept invoices', async () => {
     const res = await exportZip(a.owner, a.studioId, clientId);
     expect(res.status).toBe(200);

@@ -45,6 +45,7 @@ export function toClient(r: ClientRow) {
     hasAccount: r.user_id !== null,
     invitedAt: r.invited_at ?? null,
     createdAt: r.created_at,
+    erasedAt: r.erased_at ?? null,
   };
 }
 
@@ -68,8 +69,9 @@ export function clientsRepository(db: Db) {
         db('invitations as i').whereRaw('i.client_id = c.id').whereNull('i.revoked_at').max('i.created_at').as('invited_at'),
       );
   return {
-    async list(studioId: number, q: { limit: number; offset: number; q?: string }) {
+    async list(studioId: number, q: { limit: number; offset: number; q?: string; erased?: 'shown' | 'hidden' }) {
       const filter = (qb: ReturnType<typeof db>) => {
+        if (q.erased === 'hidden') qb.whereNull('c.erased_at');
         if (q.q) {
           const like = `%${q.q.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
           qb.where((w) => w.whereRaw("lower(c.name) like ? escape '\\'", [like]).orWhereRaw("lower(c.email) like ? escape '\\'", [like]));

@@ -1,5 +1,4 @@
-import type { CreateClientInput, UpdateClientInput } from '../../../shared/schemas/clients';
-import type { PageQuery } from '../../../shared/schemas/common';
+import type { ClientListQuery, CreateClientInput, UpdateClientInput } from '../../../shared/schemas/clients';
 import { iso, type Clock } from '../../lib/clock';
 import { isUniqueViolation, type Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
@@ -16,7 +15,7 @@ export function clientsService(deps: { db: Db; repo: ClientsRepository; clock: C
     return c;
   }
   return {
-    list: (studioId: number, q: PageQuery) => repo.list(studioId, q),
+    list: (studioId: number, q: ClientListQuery) => repo.list(studioId, q),
     get,
     async create(studioId: number, input: CreateClientInput) {
       if (input.email && (await repo.findByEmail(studioId, input.email))) throw emailTaken();

@@ -4,10 +4,10 @@ import { CommissionNewRoute } from '../../features/commissions/routes/commission
 import { membersQueryOptions } from '../../features/studios/api/get-members';
 import { useStudioScope } from '../../lib/studio-scope';
 
-/** Owner only: the client picker and the painters come from their own features. */
+/** Owner only: the client picker (without erased placeholders: no new work for them) and the painters come from their own features. */
 export default function CommissionNewPage() {
   const { studioId } = useStudioScope();
-  const clients = useQuery(clientsQueryOptions(studioId, { limit: 200 }));
+  const clients = useQuery(clientsQueryOptions(studioId, { limit: 200, erased: 'hidden' }));
   const members = useQuery(membersQueryOptions(studioId));
   return (
     <CommissionNewRoute

@@ -3,10 +3,10 @@ import type { Client } from '../../../../shared/schemas/clients';
 import type { Page } from '../../../../shared/schemas/common';
 import { api } from '../../../lib/api-client';
 
-export type ClientsFilter = { q?: string; limit?: number; offset?: number };
+export type ClientsFilter = { q?: string; limit?: number; offset?: number; erased?: 'shown' | 'hidden' };
 
 export function getClients(studioId: number, filter: ClientsFilter, signal?: AbortSignal): Promise<Page<Client>> {
-  return api<Page<Client>>(`/api/studios/${studioId}/clients`, { query: { q: filter.q, limit: filter.limit, offset: filter.offset }, signal });
+  return api<Page<Client>>(`/api/studios/${studioId}/clients`, { query: { q: filter.q, limit: filter.limit, offset: filter.offset, erased: filter.erased }, signal });
 }
 
 export function clientsQueryOptions(studioId: number, filter: ClientsFilter = {}) {

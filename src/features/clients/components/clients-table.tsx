@@ -4,6 +4,7 @@ import { Badge } from '../../../components/ui/badge';
 import { Table, TBody, Td, Th, THead, Tr } from '../../../components/ui/table';
 
 function PortalBadge({ client }: { client: Client }) {
+  if (client.erasedAt) return <Badge>Erased</Badge>;
   if (client.hasAccount) return <Badge tone="info">In the portal</Badge>;
   if (client.invitedAt) return <Badge tone="neutral">Invited</Badge>;
   return <span className="text-sable-600">—</span>;
