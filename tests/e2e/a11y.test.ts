@@ -135,6 +135,19 @@ describe('no serious or critical axe findings (WCAG 2.1 A and AA)', () => {
     await painter.page.waitForURL(/\/studio\/\d+$/);
     await painter.page.goto(`/studio/${studioId}/bench`);
     found.push(...(await scan(painter.page, 'phone bench board', () => painter.page.getByRole('region', { name: 'Bench board' }).getByRole('article').first().waitFor())));
+    // The bottom bar holds four entries and "More"; nothing on the page runs off the phone's edge.
+    const bar = painter.page.getByRole('navigation', { name: 'Studio' });
+    const more = bar.getByRole('button', { name: 'More' });
+    expect(await painter.page.evaluate(() => document.documentElement.scrollWidth <= window.innerWidth)).toBe(true);
+    await more.click();
+    found.push(...(await scan(painter.page, 'phone studio menu', () => bar.getByRole('link', { name: 'Calendar' }).waitFor())));
+    await painter.page.keyboard.press('Escape');
+    expect(await more.getAttribute('aria-expanded')).toBe('false');
+    expect(await more.evaluate((el) => el === document.activeElement)).toBe(true);
+    await more.click();
+    await bar.getByRole('link', { name: 'Paints & recipes' }).click();
+    await painter.page.waitForURL(/\/paints$/);
+    expect(await more.getAttribute('aria-expanded')).toBe('false');
     await painter.context.close();
     expect(found, report(found)).toEqual([]);
   }, 300_000);

@@ -1,4 +1,5 @@
-import { Suspense, type ReactNode } from 'react';
+import { Suspense, useEffect, useId, useRef, useState, type ReactNode } from 'react';
+import { Ellipsis } from 'lucide-react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, Outlet, useLocation, useParams } from 'react-router-dom';
 import type { Membership, MeResponse } from '../../../shared/schemas/auth';
@@ -79,31 +80,97 @@ function Rail({ membership }: { membership: Membership }) {
   );
 }
 
-/** The rail becomes a bar along the bottom edge on a phone; it scrolls sideways once it holds more. */
+/** How many entries the phone's bottom bar shows before the rest go under "More". */
+const BAR_ENTRIES = 4;
+
+/**
+ * The rail becomes a bar along the bottom edge on a phone: the first entries, and "More" with the rest in a
+ * panel above the bar (it closes on a choice, on Escape, or on a tap outside it). Nothing scrolls sideways.
+ */
 function BottomBar({ membership }: { membership: Membership }) {
   const items = navFor(membership.role);
   const base = `/studio/${membership.studioId}`;
   const rest = useStudioRest(base);
+  const { pathname } = useLocation();
+  // The panel is open on the screen it was opened on: a new screen closes it.
+  const [openOn, setOpenOn] = useState<string | null>(null);
+  const open = openOn === pathname;
+  const setOpen = (o: boolean) => setOpenOn(o ? pathname : null);
+  const barRef = useRef<HTMLElement>(null);
+  const moreRef = useRef<HTMLButtonElement>(null);
+  const panelId = useId();
+  const shown = items.length > BAR_ENTRIES + 1 ? items.slice(0, BAR_ENTRIES) : items;
+  const more = items.slice(shown.length);
+  const moreIsCurrent = more.some((item) => navItemIsCurrent(item, rest));
+
+  useEffect(() => {
+    if (!open) return;
+    const onKey = (e: KeyboardEvent) => {
+      if (e.key !== 'Escape') return;
+      setOpenOn(null);
+      moreRef.current?.focus();
+    };
+    const onPointer = (e: PointerEvent) => {
+      if (!barRef.current?.contains(e.target as Node)) setOpenOn(null);
+    };
+    document.addEventListener('keydown', onKey);
+    document.addEventListener('pointerdown', onPointer);
+    return () => {
+      document.removeEventListener('keydown', onKey);
+      document.removeEventListener('pointerdown', onPointer);
+    };
+  }, [open]);
+
+  const entry = 'flex min-h-14 w-full flex-col items-center justify-center gap-0.5 px-1 text-center text-xs leading-tight text-sable-900 no-underline';
   return (
-    <nav aria-label="Studio" className="fixed inset-x-0 bottom-0 z-30 border-t border-primer-300 bg-bone-50 sm:hidden">
-      <ul className="flex overflow-x-auto">
-        {items.map((item) => (
-          <li key={item.label} className="min-w-[4.5rem] flex-1">
+    <nav ref={barRef} aria-label="Studio" className="fixed inset-x-0 bottom-0 z-30 border-t border-primer-300 bg-bone-50 sm:hidden">
+      {open && (
+        <ul id={panelId} className="absolute inset-x-0 bottom-full flex flex-col gap-1 border-t border-primer-300 bg-bone-50 p-2 shadow-lg">
+          {more.map((item) => (
+            <li key={item.label}>
+              <Link
+                to={item.to ? `${base}/${item.to}` : base}
+                aria-current={navItemIsCurrent(item, rest) ? 'page' : undefined}
+                className={cn(
+                  'flex min-h-12 items-center gap-3 rounded-control px-3 text-sm text-sable-900 no-underline hover:bg-primer-100',
+                  navItemIsCurrent(item, rest) && 'bg-verdigris-100 font-semibold hover:bg-verdigris-100',
+                )}
+              >
+                <item.icon aria-hidden="true" className="size-5 shrink-0" />
+                {item.label}
+              </Link>
+            </li>
+          ))}
+        </ul>
+      )}
+      <ul className="flex">
+        {shown.map((item) => (
+          <li key={item.label} className="min-w-0 flex-1">
             <Link
               to={item.to ? `${base}/${item.to}` : base}
               aria-current={navItemIsCurrent(item, rest) ? 'page' : undefined}
-              className={
-                cn(
-                  'flex min-h-14 flex-col items-center justify-center gap-0.5 px-1 text-xs text-sable-900 no-underline',
-                  navItemIsCurrent(item, rest) && 'bg-verdigris-100 font-semibold',
-                )
-              }
+              className={cn(entry, navItemIsCurrent(item, rest) && 'bg-verdigris-100 font-semibold')}
             >
               <item.icon aria-hidden="true" className="size-5" />
               {item.label}
             </Link>
           </li>
         ))}
+        {more.length > 0 && (
+          <li className="min-w-0 flex-1">
+            <button
+              ref={moreRef}
+              type="button"
+              aria-expanded={open}
+              aria-controls={panelId}
+              onClick={() => setOpen(!open)}
+              className={cn(entry, 'cursor-pointer bg-transparent', (open || moreIsCurrent) && 'bg-verdigris-100 font-semibold')}
+            >
+              <Ellipsis aria-hidden="true" className="size-5" />
+              More
+            </button>
+          </li>
+        )}
       </ul>
     </nav>
   );

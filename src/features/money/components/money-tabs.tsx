@@ -1,5 +1,4 @@
-import { NavLink } from 'react-router-dom';
-import { cn } from '../../../lib/cn';
+import { SubNav } from '../../../components/ui/sub-nav';
 
 const TABS = [
   { to: 'money', label: 'Overview', end: true },
@@ -12,26 +11,5 @@ const TABS = [
 /** The owner's way around the money screens; one rail entry ("Quotes & invoices") leads here. */
 export function MoneyTabs({ studioId }: { studioId: number }) {
   const base = `/studio/${studioId}`;
-  return (
-    <nav aria-label="Quotes and invoices" className="mb-6 overflow-x-auto border-b border-primer-300">
-      <ul className="flex gap-1">
-        {TABS.map((t) => (
-          <li key={t.to}>
-            <NavLink
-              to={`${base}/${t.to}`}
-              end={t.end}
-              className={({ isActive }) =>
-                cn(
-                  '-mb-px inline-flex min-h-10 items-center border-b-2 px-3 text-sm whitespace-nowrap text-sable-900 no-underline hover:bg-primer-100',
-                  isActive ? 'border-verdigris-600 font-semibold' : 'border-transparent',
-                )
-              }
-            >
-              {t.label}
-            </NavLink>
-          </li>
-        ))}
-      </ul>
-    </nav>
-  );
+  return <SubNav label="Quotes and invoices" className="mb-6" items={TABS.map((t) => ({ ...t, to: `${base}/${t.to}` }))} />;
 }
