@@ -4,6 +4,7 @@ import { Plus, Search, Users } from 'lucide-react';
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { ErrorNote } from '../../../components/ui/error-note';
+import { Pager } from '../../../components/ui/pager';
 import { PageTitle } from '../../../components/ui/page-title';
 import { LoadingBlock, Spinner } from '../../../components/ui/spinner';
 import { pluralize } from '../../../lib/format';
@@ -123,21 +124,7 @@ export function ClientsListRoute() {
       ) : page ? (
         <>
           <ClientsTable clients={page.items} caption={q ? `Clients matching “${q}”` : 'All clients'} />
-          {page.total > page.limit && (
-            <nav aria-label="Pages of clients" className="mt-4 flex flex-wrap items-center justify-between gap-2 text-sm">
-              <span className="figures text-sable-600">
-                {page.offset + 1}–{Math.min(page.offset + page.items.length, page.total)} of {page.total}
-              </span>
-              <span className="flex gap-2">
-                <Button variant="secondary" size="sm" disabled={page.offset === 0} onClick={() => goTo(Math.max(0, page.offset - page.limit))}>
-                  Previous
-                </Button>
-                <Button variant="secondary" size="sm" disabled={page.offset + page.limit >= page.total} onClick={() => goTo(page.offset + page.limit)}>
-                  Next
-                </Button>
-              </span>
-            </nav>
-          )}
+          <Pager label="Pages of clients" page={page} onOffset={(o) => goTo(o)} />
         </>
       ) : null}
     </>

@@ -5,6 +5,7 @@ import { commissionStatuses, commissionStatusLabels } from '../../../../shared/c
 import { Button, ButtonLink } from '../../../components/ui/button';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { ErrorNote } from '../../../components/ui/error-note';
+import { Pager } from '../../../components/ui/pager';
 import { PageTitle } from '../../../components/ui/page-title';
 import { LoadingBlock, Spinner } from '../../../components/ui/spinner';
 import { pluralize } from '../../../lib/format';
@@ -154,21 +155,7 @@ export function CommissionsListRoute() {
       ) : page ? (
         <>
           <CommissionsTable items={page.items} caption={q ? `Commissions matching “${q}”` : 'Commissions'} timezone={timezone} />
-          {page.total > page.limit && (
-            <nav aria-label="Pages of commissions" className="mt-4 flex flex-wrap items-center justify-between gap-2 text-sm">
-              <span className="figures text-sable-600">
-                {page.offset + 1}–{Math.min(page.offset + page.items.length, page.total)} of {page.total}
-              </span>
-              <span className="flex gap-2">
-                <Button variant="secondary" size="sm" disabled={page.offset === 0} onClick={() => set('from', String(Math.max(0, page.offset - page.limit)) || null)}>
-                  Previous
-                </Button>
-                <Button variant="secondary" size="sm" disabled={page.offset + page.limit >= page.total} onClick={() => set('from', String(page.offset + page.limit))}>
-                  Next
-                </Button>
-              </span>
-            </nav>
-          )}
+          <Pager label="Pages of commissions" page={page} onOffset={(o) => set('from', o ? String(o) : null)} />
         </>
       ) : null}
     </>

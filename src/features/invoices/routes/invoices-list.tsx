@@ -5,6 +5,7 @@ import { Card } from '../../../components/ui/card';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { ErrorNote } from '../../../components/ui/error-note';
 import { SelectField } from '../../../components/ui/field';
+import { Pager } from '../../../components/ui/pager';
 import { PageTitle } from '../../../components/ui/page-title';
 import { LoadingBlock } from '../../../components/ui/spinner';
 import { pluralize } from '../../../lib/format';
@@ -113,21 +114,7 @@ export function InvoicesListRoute({ clients = [] }: { clients?: ClientOption[] }
       ) : (
         <>
           <InvoicesTable invoices={page.items} caption={filtered ? 'Invoices matching the filter' : 'All invoices'} timezone={timezone} showClient={owner} base="." />
-          {page.total > page.limit && (
-            <nav aria-label="Pages of invoices" className="mt-4 flex flex-wrap items-center justify-between gap-2 text-sm">
-              <span className="figures text-sable-600">
-                {page.offset + 1}–{Math.min(page.offset + page.items.length, page.total)} of {page.total}
-              </span>
-              <span className="flex gap-2">
-                <Button variant="secondary" size="sm" disabled={page.offset === 0} onClick={() => setParam('from', page.offset - page.limit > 0 ? String(page.offset - page.limit) : undefined)}>
-                  Previous
-                </Button>
-                <Button variant="secondary" size="sm" disabled={page.offset + page.limit >= page.total} onClick={() => setParam('from', String(page.offset + page.limit))}>
-                  Next
-                </Button>
-              </span>
-            </nav>
-          )}
+          <Pager label="Pages of invoices" page={page} onOffset={(o) => setParam('from', o ? String(o) : undefined)} />
         </>
       )}
 

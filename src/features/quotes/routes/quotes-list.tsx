@@ -5,6 +5,7 @@ import { Button } from '../../../components/ui/button';
 import { EmptyState } from '../../../components/ui/empty-state';
 import { ErrorNote } from '../../../components/ui/error-note';
 import { SelectField } from '../../../components/ui/field';
+import { Pager } from '../../../components/ui/pager';
 import { PageTitle } from '../../../components/ui/page-title';
 import { LoadingBlock } from '../../../components/ui/spinner';
 import { pluralize } from '../../../lib/format';
@@ -80,21 +81,7 @@ export function QuotesListRoute() {
       ) : (
         <>
           <QuotesTable quotes={page.items} caption={status ? `Quotes: ${quoteStatusLabels[status]}` : 'All quotes'} timezone={timezone} forClient={forClient} base="." />
-          {page.total > page.limit && (
-            <nav aria-label="Pages of quotes" className="mt-4 flex flex-wrap items-center justify-between gap-2 text-sm">
-              <span className="figures text-sable-600">
-                {page.offset + 1}–{Math.min(page.offset + page.items.length, page.total)} of {page.total}
-              </span>
-              <span className="flex gap-2">
-                <Button variant="secondary" size="sm" disabled={page.offset === 0} onClick={() => set('from', page.offset - page.limit > 0 ? String(page.offset - page.limit) : undefined)}>
-                  Previous
-                </Button>
-                <Button variant="secondary" size="sm" disabled={page.offset + page.limit >= page.total} onClick={() => set('from', String(page.offset + page.limit))}>
-                  Next
-                </Button>
-              </span>
-            </nav>
-          )}
+          <Pager label="Pages of quotes" page={page} onOffset={(o) => set('from', o ? String(o) : undefined)} />
         </>
       )}
     </>
