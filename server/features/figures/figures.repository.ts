@@ -86,6 +86,13 @@ export function figuresRepository(db: Db) {
         .where({ 'm.studio_id': studioId, 'm.user_id': userId })
         .whereIn('m.role', ['owner', 'painter'])
         .first('u.id', 'u.name') as Promise<{ id: number; name: string } | undefined>,
+    /**
+     * Takes the commission row's lock (PostgreSQL's FOR NO KEY UPDATE, what an UPDATE of it takes; SQLite
+     * writes one transaction at a time and Knex leaves the clause out): a figure's own write then locks its
+     * commission before the figure, as a stage write does through the totals' triggers (stage, commission,
+     * figure), so the two cannot wait for each other (migrations/20270202120000-figure-totals.ts).
+     */
+    lockCommission: (trx: Db, studioId: number, commissionId: number) => trx('commissions').where({ studio_id: studioId, id: commissionId }).forNoKeyUpdate().first('id'),
     touchCommission: (trx: Db, studioId: number, commissionId: number, now: string) => trx('commissions').where({ studio_id: studioId, id: commissionId }).update({ updated_at: now }),
     nextPosition: (studioId: number, commissionId: number, trx: Db = db) =>
       trx('figures').where({ studio_id: studioId, commission_id: commissionId }).max({ p: 'position' }).first().then((r) => Number(r?.p ?? 0) + 1),

@@ -267,6 +267,7 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
       await db.transaction(async (trx) => {
         const { f, c } = await figureInCommission(studioId, figureId, trx);
         assertOpen(c.status);
+        await repo.lockCommission(trx, studioId, f.commission_id); // before the figure row (see lockCommission)
         const sizeClass = input.sizeClass ?? (f.size_class as SizeClass);
         const footprint = sizeClass === 'large' ? (input.footprint !== undefined ? input.footprint : f.footprint) : null;
         if (sizeClass === 'large' && !footprint) throw errors.field('footprint', 'Give the footprint of a large figure, e.g. 180 × 110 mm.');
@@ -322,6 +323,7 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
       await db.transaction(async (trx) => {
         const { f, c } = await figureInCommission(studioId, figureId, trx);
         assertOpen(c.status);
+        await repo.lockCommission(trx, studioId, f.commission_id); // before the figure row (see lockCommission)
         await repo.deleteFigure(trx, studioId, figureId);
         await repo.touchCommission(trx, studioId, f.commission_id, now());
         await activity.record(trx, { studioId, commissionId: f.commission_id, userId: actor.userId, action: 'figure.removed', detail: { figureId, name: f.name, quantity: f.quantity } });

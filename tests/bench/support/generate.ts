@@ -3,6 +3,7 @@ import bcrypt from 'bcryptjs';
 import knexFactory from 'knex';
 import path from 'node:path';
 import { backfillCommissionTotals } from '../../../migrations/20270120120000-commission-totals';
+import { backfillFigureTotalsSql } from '../../../migrations/20270202120000-figure-totals';
 import { quoteFigures } from '../../../shared/pricing';
 import { defaultPriceTable } from '../../../shared/schemas/price-table';
 
@@ -17,14 +18,17 @@ export const benchSize: BenchSize = { studios: 50, commissions: 10_000, figuresP
  */
 function totalsSetAside(db: Database.Database) {
   // The schedule version's triggers (migrations/20270121120000-schedule-version.ts) would bump the studio
-  // row once per row inserted; a freshly generated studio needs no version but its first.
+  // row once per row inserted; a freshly generated studio needs no version but its first. The figure
+  // totals' triggers (migrations/20270202120000-figure-totals.ts) would recompute a figure from its stages
+  // once per stage inserted; their backfill, the same SQL the triggers run, sets every figure at the end.
   const triggers = db
-    .prepare("select name, sql from sqlite_master where type = 'trigger' and (name glob 'commission_totals_*' or name glob 'schedule_version_*')")
+    .prepare("select name, sql from sqlite_master where type = 'trigger' and (name glob 'commission_totals_*' or name glob 'schedule_version_*' or name glob 'figure_totals_*')")
     .all() as { name: string; sql: string }[];
   for (const t of triggers) db.exec(`drop trigger ${t.name}`);
   return () => {
     const knex = knexFactory({ client: 'better-sqlite3', useNullAsDefault: true }); // only builds the SQL
     db.exec(backfillCommissionTotals(knex).toString());
+    db.exec(backfillFigureTotalsSql);
     for (const t of triggers) db.exec(t.sql);
   };
 }
