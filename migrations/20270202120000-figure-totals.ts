@@ -27,13 +27,15 @@ import type { Knex } from 'knex';
  * of the row takes), in id order: it does not wait for the key-share locks that inserts referencing the
  * figure (stages, time entries) take.
  *
- * Lock order: a stage write locks the stage row, then the commission row (the commission totals' trigger
- * fires first: triggers of one event fire in name order), then the figure row. A figure's own write
- * (rename, painter, quantity, removal) would lock the figure and then touch its commission, the other
- * way round, and two such writes of one figure could wait for each other (a deadlock, as the queue
- * reorder and stage edits once did over the studio row: 20270121120000-schedule-version.ts). The figure
- * service therefore locks the commission first in those writes (figures.repository.ts lockCommission);
- * tests/api/figure-totals.test.ts runs them side by side on PostgreSQL.
+ * Lock order: a stage write locks the stage row, then the commission row (the commission totals'
+ * trigger fires first: PostgreSQL fires the triggers of one event in name order), then the figure row. A
+ * figure's own write (rename, painter) would lock the figure and then touch its commission, the other way
+ * round, and a transaction writing several stages (a new quantity, an accepted quote) holds the commission
+ * while it takes the next stage: either could wait for a stage tick that waits for it (a deadlock, as the
+ * queue reorder and stage edits once did over the studio row: 20270121120000-schedule-version.ts). So
+ * every transaction that writes a commission's figures or stages locks the commission row first
+ * (server/features/figures/figures.repository.ts lockCommission), and tests/api/figure-totals.test.ts
+ * runs such writes side by side on PostgreSQL.
  */
 
 const counts = ['stage_count', 'stages_skipped', 'stages_done', 'minutes_total', 'minutes_done'] as const;

@@ -87,12 +87,26 @@ export function figuresRepository(db: Db) {
         .whereIn('m.role', ['owner', 'painter'])
         .first('u.id', 'u.name') as Promise<{ id: number; name: string } | undefined>,
     /**
-     * Takes the commission row's lock (PostgreSQL's FOR NO KEY UPDATE, what an UPDATE of it takes; SQLite
-     * writes one transaction at a time and Knex leaves the clause out): a figure's own write then locks its
-     * commission before the figure, as a stage write does through the totals' triggers (stage, commission,
-     * figure), so the two cannot wait for each other (migrations/20270202120000-figure-totals.ts).
+     * Takes the lock of the commission row (PostgreSQL's FOR NO KEY UPDATE, the lock an UPDATE of it takes;
+     * SQLite writes one transaction at a time and Knex leaves the clause out), found by itself, a figure or
+     * a stage of it. Every transaction that writes a commission's figures or stages takes it first, before
+     * any stage or figure row: the totals' triggers lock stage, commission, figure in that order, and a
+     * transaction writing several stages, or a figure and then its commission, would otherwise wait for
+     * another that holds one and wants the next (a deadlock; migrations/20270202120000-figure-totals.ts).
      */
-    lockCommission: (trx: Db, studioId: number, commissionId: number) => trx('commissions').where({ studio_id: studioId, id: commissionId }).forNoKeyUpdate().first('id'),
+    lockCommission: (trx: Db, studioId: number, of: { commissionId: number } | { figureId: number } | { stageId: number }) =>
+      trx('commissions')
+        .where('studio_id', studioId)
+        .whereIn(
+          'id',
+          'commissionId' in of
+            ? [of.commissionId]
+            : trx('figureId' in of ? 'figures' : 'stages')
+                .where({ studio_id: studioId, id: 'figureId' in of ? of.figureId : of.stageId })
+                .select('commission_id'),
+        )
+        .forNoKeyUpdate()
+        .first('id'),
     touchCommission: (trx: Db, studioId: number, commissionId: number, now: string) => trx('commissions').where({ studio_id: studioId, id: commissionId }).update({ updated_at: now }),
     nextPosition: (studioId: number, commissionId: number, trx: Db = db) =>
       trx('figures').where({ studio_id: studioId, commission_id: commissionId }).max({ p: 'position' }).first().then((r) => Number(r?.p ?? 0) + 1),

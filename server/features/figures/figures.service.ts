@@ -233,6 +233,7 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
    * the caller's transaction; stages the minutes do not name keep theirs.
    */
   async function setStageEstimates(trx: Db, studioId: number, figureId: number, minutes: Record<string, number>) {
+    await repo.lockCommission(trx, studioId, { figureId });
     const t = now();
     for (const s of await repo.stagesOfFigure(studioId, figureId, trx)) {
       const m = minutes[s.template_key];
@@ -243,6 +244,8 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
 
   return {
     addInTransaction,
+    /** For other features' transactions that write stages (the timer sets one working): call first. */
+    lockCommission: (trx: Db, studioId: number, of: { stageId: number }) => repo.lockCommission(trx, studioId, of),
     copyStages,
     setStageEstimates,
     views,
@@ -265,9 +268,9 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
     async update(actor: Actor, figureId: number, input: UpdateFigureInput) {
       const { studioId } = actor;
       await db.transaction(async (trx) => {
+        await repo.lockCommission(trx, studioId, { figureId }); // first (see lockCommission)
         const { f, c } = await figureInCommission(studioId, figureId, trx);
         assertOpen(c.status);
-        await repo.lockCommission(trx, studioId, f.commission_id); // before the figure row (see lockCommission)
         const sizeClass = input.sizeClass ?? (f.size_class as SizeClass);
         const footprint = sizeClass === 'large' ? (input.footprint !== undefined ? input.footprint : f.footprint) : null;
         if (sizeClass === 'large' && !footprint) throw errors.field('footprint', 'Give the footprint of a large figure, e.g. 180 × 110 mm.');
@@ -321,9 +324,9 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
     async remove(actor: Actor, figureId: number) {
       const { studioId } = actor;
       await db.transaction(async (trx) => {
+        await repo.lockCommission(trx, studioId, { figureId });
         const { f, c } = await figureInCommission(studioId, figureId, trx);
         assertOpen(c.status);
-        await repo.lockCommission(trx, studioId, f.commission_id); // before the figure row (see lockCommission)
         await repo.deleteFigure(trx, studioId, figureId);
         await repo.touchCommission(trx, studioId, f.commission_id, now());
         await activity.record(trx, { studioId, commissionId: f.commission_id, userId: actor.userId, action: 'figure.removed', detail: { figureId, name: f.name, quantity: f.quantity } });
@@ -333,6 +336,7 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
     async updateStage(actor: Actor, stageId: number, input: UpdateStageInput) {
       const { studioId } = actor;
       const figureId = await db.transaction(async (trx) => {
+        await repo.lockCommission(trx, studioId, { stageId });
         const ctx = await stageContext(studioId, stageId, trx);
         assertOpen(ctx.commission_status);
         const patch: Record<string, unknown> = {};
@@ -368,6 +372,7 @@ export function figuresService(deps: { db: Db; repo: FiguresRepository; setup: S
     async advance(actor: Actor, figureId: number) {
       const { studioId } = actor;
       await db.transaction(async (trx) => {
+        await repo.lockCommission(trx, studioId, { figureId });
         const { c } = await figureInCommission(studioId, figureId, trx);
         assertOpen(c.status);
         const current = currentStage(await repo.stagesOfFigure(studioId, figureId, trx));

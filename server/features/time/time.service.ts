@@ -129,6 +129,7 @@ export function timeService(deps: { db: Db; repo: TimeRepository; figures: Figur
     async start(actor: Actor, stageId: number) {
       const { studioId } = actor;
       const id = await db.transaction(async (trx) => {
+        await figures.lockCommission(trx, studioId, { stageId }); // it may set the stage working: first (figures.repository.ts)
         const ctx = await figures.stageContext(studioId, stageId, trx);
         assertOpen(ctx.commission_status);
         await repo.lockPerson(trx, actor.userId);
