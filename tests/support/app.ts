@@ -15,6 +15,20 @@ export type TestApp = SableworkApp & { clock: ReturnType<typeof manualClock>; da
 type OwnDatabase = { url: string; drop(): Promise<void> };
 
 /**
+ * Two queries sent at once on one PostgreSQL connection (a Promise.all inside a transaction) are queued by
+ * node-postgres, which is deprecated and ends with pg 9 (its warning: "Calling client.query() when the
+ * client is already executing a query"). On a PostgreSQL run that warning fails the run instead of
+ * scrolling by. Once per worker process: vitest evaluates this module again for every test file.
+ */
+const WATCHING_PG_QUEUE = Symbol.for('sablework.tests.watchPgQueue');
+if (process.env.DATABASE_URL && !(globalThis as Record<symbol, unknown>)[WATCHING_PG_QUEUE]) {
+  (globalThis as Record<symbol, unknown>)[WATCHING_PG_QUEUE] = true;
+  process.on('warning', (w) => {
+    if (/already executing a query/.test(w.message)) throw w;
+  });
+}
+
+/**
  * With DATABASE_URL set (a PostgreSQL server), each test app gets a database of its own on that URL's
  * server; without it, SQLite in the temporary DATA_DIR. The databases are copies of one template
  * migrated once per run (tests/support/pg-template.ts), so an app starts without running every migration

@@ -145,7 +145,9 @@ export function figuresRepository(db: Db) {
         sq.whereIn('s.figure_id', by.figureIds);
         lq.whereIn('figure_id', by.figureIds);
       }
-      const [figureRows, stageRows, logged] = await Promise.all([fq, sq, lq]);
+      // In a transaction the three go one after another: a PostgreSQL connection runs one query at a time
+      // (node-postgres queues the rest, which it deprecates); outside one, the pool runs them side by side.
+      const [figureRows, stageRows, logged] = trx.isTransaction ? [await fq, await sq, await lq] : await Promise.all([fq, sq, lq]);
       return {
         figures: figureRows as FigureRow[],
         stages: stageRows as StageRow[],
