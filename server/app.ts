@@ -284,6 +284,9 @@ export async function createApp(config: Config) {
 
   const app = express();
   app.disable('x-powered-by');
+  // No ETag made from every body: API answers are no-store, so no browser asks again with it, and hashing each
+  // answer costs time on every request. The answers that are cached (photos, the calendar feed) set their own.
+  app.set('etag', false);
   app.set('trust proxy', config.trustProxy ? 1 : false);
   app.use(requestLog(log, { eachRequest: config.logLevel === 'debug' || config.logLevel === 'trace' }));
   app.use(

@@ -115,6 +115,25 @@ describe('calendar feed', () => {
     expect((await owner.get(`${base}/calendar-feed`)).body.lastUsedAt).toBe('2026-03-02T07:00:00.000Z');
   });
 
+  it('tags the calendar so a calendar app asking again gets 304 while it is unchanged, and the new text once it changes', async () => {
+    const first = await new Caller(sw.app).get(path(ownerUrl));
+    const etag = first.headers.etag;
+    expect(etag).toMatch(/^"[A-Za-z0-9_-]{27}"$/);
+    const again = await new Caller(sw.app).get(path(ownerUrl)).set('If-None-Match', etag);
+    expect(again.status).toBe(304);
+    expect(again.text ?? '').toBe('');
+    expect((await new Caller(sw.app).get(path(ownerUrl)).set('If-None-Match', '"another"')).status).toBe(200);
+    // A new due date changes the calendar, so the old tag no longer matches.
+    const commission = (await owner.get(`${base}/commissions`)).body.items.find((c: { title: string }) => c.title === 'Heron knight');
+    expect((await owner.patch(`${base}/commissions/${commission.id}`, { dueDate: '2026-03-12' })).status).toBe(200);
+    const changed = await new Caller(sw.app).get(path(ownerUrl)).set('If-None-Match', etag);
+    expect(changed.status).toBe(200);
+    expect(changed.headers.etag).not.toBe(etag);
+    expect(changed.text).toContain('20260312');
+    // JSON answers carry no tag of their own (they are no-store).
+    expect((await owner.get(`${base}/commissions`)).headers.etag).toBeUndefined();
+  });
+
   it('gives a painter only the commissions on their bench', async () => {
     const res = await painter.post(`${base}/calendar-feed`);
     expect(res.status).toBe(201);

@@ -1,3 +1,4 @@
+import crypto from 'node:crypto';
 import type { Request } from 'express';
 import { z } from 'zod';
 import { member, publicRoute, user, type Allow } from '../../lib/policy';
@@ -20,7 +21,10 @@ export function calendarFeedRoutes(r: RouteTable, deps: { allow: Allow; calendar
     validate({ params: tokenParams }),
     json(async (_req, res) => {
       const body = await calendarFeed.ics(params<{ token: string }>(res).token);
-      res.set({ 'Content-Type': 'text/calendar; charset=utf-8', 'Cache-Control': 'private, max-age=300', 'Referrer-Policy': 'no-referrer' });
+      // Calendar apps poll the feed: with the tag of its text they ask again with If-None-Match, and an
+      // unchanged calendar answers 304 with no body (Express compares the tag when sending).
+      const etag = `"${crypto.createHash('sha256').update(body).digest('base64url').slice(0, 27)}"`;
+      res.set({ 'Content-Type': 'text/calendar; charset=utf-8', 'Cache-Control': 'private, max-age=300', 'Referrer-Policy': 'no-referrer', ETag: etag });
       res.send(body);
     }),
   );
