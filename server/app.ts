@@ -169,7 +169,7 @@ export async function createApp(config: Config) {
   const figures = figuresService({ db, repo: figuresRepository(db), setup, activity, clock: config.clock });
   const commissions = commissionsService({ db, repo: commissionsRepository(db), figures, activity, clock: config.clock });
   const time = timeService({ db, repo: timeRepository(db), figures, activity, clock: config.clock });
-  const board = boardService({ repo: boardRepository(db), setup, clock: config.clock });
+  const board = boardService({ repo: boardRepository(db), setup, clock: config.clock, cacheRows: config.boardCacheRows });
   // The calendar: painters' hours and days off, the queue and its forecast, the per-person calendar feeds.
   const capacity = capacityService({ db, repo: capacityRepository(db), clock: config.clock });
   const schedule = scheduleService({ db, repo: scheduleRepository(db), capacity, clock: config.clock, cacheStages: config.forecastCacheStages });

@@ -58,6 +58,8 @@ export type Config = {
   runJobs: boolean;
   /** Stages the in-memory forecast cache may hold across studios (default 200,000, about 60 MB); 0 turns it off. */
   forecastCacheStages?: number;
+  /** Rows (figures) the in-memory bench board cache may hold across studios and queries (default 50,000); 0 turns it off. */
+  boardCacheRows?: number;
 };
 
 export const DEMO_PASSWORD = 'paint-the-bench';

@@ -46,6 +46,16 @@ export function boardRepository(db: Db) {
 
   return {
     /**
+     * The studio's schedule version: database triggers move it with every committed change to a row the
+     * board reads (migrations/20270121120000-schedule-version.ts, 20270203120000-board-version.ts).
+     * Undefined when there is no such studio.
+     */
+    version: (studioId: number) =>
+      db('studios')
+        .where({ id: studioId })
+        .first('schedule_version')
+        .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined)),
+    /**
      * One page of the figures of the board's commissions, in the board's order (the commission order, then
      * figure id), with their painters. The commissions (a hundred or so rows, narrow) are sorted first, in a
      * materialized CTE; the figures are then read commission by commission through the

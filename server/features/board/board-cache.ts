@@ -1,0 +1,90 @@
+/**
+ * What the board read from the database, kept in memory per studio, schedule version and query.
+ *
+ * An entry is good for one studio, one `schedule_version` (moved by database triggers whenever a row the
+ * board reads changes: migrations/20270121120000-schedule-version.ts and 20270203120000-board-version.ts)
+ * and one query (filters and page, `key`). Unlike the forecast there is no minute in the key: what is kept
+ * does not depend on the clock (the cards' waits are worked out from it per request).
+ *
+ * Bounded by weight (rows held), least recently used out first. A lookup shares a read still running for
+ * the same key, so many requests after a write read the database once. When an entry of a newer version
+ * of a studio is kept, the studio's entries of older versions are dropped: no request can use them again
+ * once the newer version is committed (a request that read the older version just before finds no
+ * entry and reads for itself).
+ */
+
+type Entry<V> = { studioId: number; version: number; weight: number; value: Promise<V> };
+
+export function boardCache<V>(opts: { maxWeight: number; weigh: (v: V) => number }) {
+  const entries = new Map<string, Entry<V>>(); // least recently used first
+  /** Per studio: the newest version kept and the keys of its entries. */
+  const studios = new Map<number, { version: number; keys: Set<string> }>();
+  let total = 0;
+
+  const id = (studioId: number, key: string) => `${studioId} ${key}`;
+
+  const drop = (k: string) => {
+    const e = entries.get(k);
+    if (!e) return;
+    total -= e.weight;
+    entries.delete(k);
+    const s = studios.get(e.studioId);
+    if (s) {
+      s.keys.delete(k);
+      if (!s.keys.size) studios.delete(e.studioId);
+    }
+  };
+
+  function evict() {
+    for (const [k] of entries) {
+      if (total <= opts.maxWeight) return;
+      drop(k);
+    }
+  }
+
+  return {
+    /** The value kept (or being read) for this studio, version and key, touching it as recently used. */
+    get(studioId: number, version: number, key: string): Promise<V> | undefined {
+      const k = id(studioId, key);
+      const e = entries.get(k);
+      if (!e || e.version !== version) return undefined;
+      entries.delete(k);
+      entries.set(k, e);
+      return e.value;
+    },
+
+    /**
+     * Keeps what `read` gives under the key, unless the studio already has a newer version kept (a request
+     * that read the version just before a write finishes after one that read it just after). A failure is
+     * not kept.
+     */
+    set(studioId: number, version: number, key: string, read: Promise<V>): Promise<V> {
+      if (opts.maxWeight <= 0) return read;
+      const s = studios.get(studioId);
+      if (s && s.version > version) return read;
+      if (s && s.version < version) for (const old of [...s.keys]) drop(old);
+      const k = id(studioId, key);
+      drop(k);
+      const e: Entry<V> = { studioId, version, weight: 0, value: read };
+      entries.set(k, e);
+      const now = studios.get(studioId);
+      if (now) now.keys.add(k);
+      else studios.set(studioId, { version, keys: new Set([k]) });
+      read.then(
+        (v) => {
+          if (entries.get(k) !== e) return;
+          e.weight = opts.weigh(v);
+          total += e.weight;
+          evict();
+        },
+        () => {
+          if (entries.get(k) === e) drop(k);
+        },
+      );
+      return read;
+    },
+
+    /** Entries kept and the weight they hold (for tests). */
+    size: () => ({ entries: entries.size, weight: total }),
+  };
+}
