@@ -16,6 +16,10 @@ export default defineConfig({
           environment: 'node',
           // With DATABASE_URL set, migrates one PostgreSQL template database for the run's test apps.
           globalSetup: ['tests/support/pg-template.ts'],
+          // Each worker loads the app's modules once, not once per file (about two minutes of imports a run).
+          // Every test file starts its own app (createApp) on its own database, so no state is shared; a test
+          // that fakes timers or spies restores them in afterEach.
+          isolate: false,
           testTimeout: 20_000,
           hookTimeout: 30_000,
         },
