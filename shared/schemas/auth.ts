@@ -39,6 +39,13 @@ export const updateMeInput = z.object({
 });
 export type UpdateMeInput = z.infer<typeof updateMeInput>;
 
+/** A signed-in person changes their password: the current one, and the new one under the usual rules. */
+export const changePasswordInput = z.object({
+  currentPassword: z.string({ error: 'Enter your current password.' }).min(1, 'Enter your current password.').max(200),
+  newPassword: password,
+});
+export type ChangePasswordInput = z.infer<typeof changePasswordInput>;
+
 export type Membership = { studioId: number; studioName: string; role: Role };
 export type SessionUser = { id: number; email: string; name: string; emailNotices: boolean };
 export type MeResponse = { user: SessionUser; memberships: Membership[] };

@@ -14,6 +14,7 @@ const ForgotPassword = lazy(() => import('./routes/forgot-password'));
 const ResetPassword = lazy(() => import('./routes/reset-password'));
 const Invite = lazy(() => import('./routes/invite'));
 const Studios = lazy(() => import('./routes/studios'));
+const Account = lazy(() => import('./routes/account'));
 const StudioLayout = lazy(() => import('./routes/studio-layout'));
 const StudioHome = lazy(() => import('./routes/studio-home'));
 const Clients = lazy(() => import('./routes/clients'));
@@ -87,6 +88,7 @@ export const routes: RouteObject[] = [
         element: <RequireAuth />,
         children: [
           { path: '/studios', element: screen(Studios) },
+          { path: '/account', element: screen(Account) },
           {
             path: '/studio/:studioId',
             element: screen(StudioLayout),

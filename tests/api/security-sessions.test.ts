@@ -400,3 +400,67 @@ describe('passwords', () => {
     expect((await new Caller(sw.app).post('/api/auth/login', { email: 'kana@passwords.test', password: `${password.slice(0, 63)}x` })).status).toBe(401);
   });
 });
+
+describe('changing one’s password (ASVS 2.1.5, 2.1.6)', () => {
+  const NEW = 'a brand new long secret';
+  beforeAll(async () => {
+    await signUp(sw, { email: 'changer@passwords.test' });
+    await signUp(sw, { email: 'onlooker@passwords.test' });
+  });
+
+  it('needs the current password: a wrong one is a field error, and neither password changes', async () => {
+    const c = await signInAs(sw, 'changer@passwords.test');
+    const res = await c.post('/api/auth/password', { currentPassword: 'not the password at all', newPassword: NEW });
+    expect(res.status).toBe(400);
+    expect(res.body.error.fields.currentPassword).toMatch(/current password/);
+    expect((await new Caller(sw.app).post('/api/auth/login', { email: 'changer@passwords.test', password: NEW })).status).toBe(401);
+    expect((await c.get('/api/auth/me')).status).toBe(200);
+  });
+
+  it('keeps the usual rules for the new one: 12 characters at least, not the current one again', async () => {
+    const c = await signInAs(sw, 'changer@passwords.test');
+    const short = await c.post('/api/auth/password', { currentPassword: PASSWORD, newPassword: 'eleven char' });
+    expect(short.status).toBe(400);
+    expect(short.body.error.fields.newPassword).toMatch(/12 characters/);
+    const same = await c.post('/api/auth/password', { currentPassword: PASSWORD, newPassword: PASSWORD });
+    expect(same.status).toBe(400);
+    expect(same.body.error.fields.newPassword).toMatch(/other than the current/);
+    expect((await new Caller(sw.app).post('/api/auth/password', { currentPassword: PASSWORD, newPassword: NEW })).status).toBe(401);
+  });
+
+  it('changes it: this session goes on under a new id, every other session ends, the old password stops working, and an e-mail says so', async () => {
+    const other = await signInAs(sw, 'changer@passwords.test');
+    const bystander = await signInAs(sw, 'onlooker@passwords.test');
+    const c = await signInAs(sw, 'changer@passwords.test');
+    const before = (await mailTo(sw, 'changer@passwords.test')).length;
+    const oldCookie = cookieOf(await c.agent.get('/api/auth/csrf'));
+    const res = await c.post('/api/auth/password', { currentPassword: PASSWORD, newPassword: NEW });
+    expect(res.status).toBe(200);
+    expect(res.body.user.email).toBe('changer@passwords.test');
+    const fresh = cookieOf(res)!;
+    expect(sidIn(fresh)).not.toBe(sidIn(oldCookie ?? fresh));
+    expect(await whoHas(fresh)).toBe('changer@passwords.test');
+    if (oldCookie) expect(await whoHas(oldCookie)).toBe(401);
+    expect((await other.get('/api/auth/me')).status).toBe(401);
+    expect((await bystander.get('/api/auth/me')).status).toBe(200);
+    // the session goes on writing (a fresh CSRF token for the new session)
+    expect((await c.patch('/api/auth/me', { name: 'Changed Person' })).status).toBe(200);
+    expect((await new Caller(sw.app).post('/api/auth/login', { email: 'changer@passwords.test', password: PASSWORD })).status).toBe(401);
+    expect((await new Caller(sw.app).post('/api/auth/login', { email: 'changer@passwords.test', password: NEW })).status).toBe(200);
+    await sw.jobs.deliverMail();
+    const mails = await mailTo(sw, 'changer@passwords.test');
+    expect(mails).toHaveLength(before + 1);
+    expect(mails.at(-1)!.subject).toBe('Your Sablework password was changed');
+    expect(mails.at(-1)!.text).not.toContain(NEW);
+  });
+
+  it(`wrong current passwords count against the account: after ${THROTTLE_LIMITS.account} the answer is 429 with Retry-After, even for the right one`, async () => {
+    await signUp(sw, { email: 'guessed@passwords.test' });
+    const thief = await signInAs(sw, 'guessed@passwords.test');
+    for (let i = 0; i < THROTTLE_LIMITS.account; i++) expect((await thief.post('/api/auth/password', { currentPassword: `guess number ${i}`, newPassword: NEW })).status).toBe(400);
+    const blocked = await thief.post('/api/auth/password', { currentPassword: PASSWORD, newPassword: NEW });
+    expect(blocked.status).toBe(429);
+    expect(Number(blocked.headers['retry-after'])).toBeGreaterThan(0);
+    expect((await new Caller(sw.app).post('/api/auth/login', { email: 'guessed@passwords.test', password: NEW })).status).not.toBe(200);
+  });
+});

@@ -118,7 +118,7 @@ export class Caller {
     const req = this.agent[method](url).set('x-csrf-token', token);
     const res = await (body === undefined ? req : req.send(body as object));
     // The session id changes at sign-in and sign-out; the next unsafe call needs the new session's token.
-    if (/\/auth\/(login|logout|signup)|\/accept$|password-reset\/confirm/.test(url)) this.token = null;
+    if (/\/auth\/(login|logout|signup|password)$|\/accept$|password-reset\/confirm/.test(url)) this.token = null;
     return res;
   }
   post = (url: string, body?: unknown) => this.unsafe('post', url, body);

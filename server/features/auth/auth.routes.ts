@@ -1,7 +1,7 @@
 import crypto from 'node:crypto';
 import type { PassportStatic } from 'passport';
 import type { Request, RequestHandler } from 'express';
-import { acceptInvitationInput, loginInput, resetConfirmInput, resetRequestInput, signupInput, updateMeInput } from '../../../shared/schemas/auth';
+import { acceptInvitationInput, changePasswordInput, loginInput, resetConfirmInput, resetRequestInput, signupInput, updateMeInput } from '../../../shared/schemas/auth';
 import { z } from 'zod';
 import type { AuthUser } from '../../lib/policy';
 import { publicRoute, signedIn, user } from '../../lib/policy';
@@ -16,7 +16,7 @@ import type { AuthService } from './auth.service';
 const tokenParams = z.object({ token: z.string().min(10).max(200) });
 
 /** Sign-ins, sign-outs and reset requests go to the log (ASVS 7.1.3, 7.2.1): who, how, from where; no secrets. */
-const logSignIn = (req: Request, how: 'password' | 'sign-up' | 'password-reset' | 'invitation') =>
+const logSignIn = (req: Request, how: 'password' | 'sign-up' | 'password-reset' | 'password-change' | 'invitation') =>
   req.log.info({ event: 'security.signed-in', how, ...requester(req) }, `signed in (${how})`);
 
 /** passport.authenticate('local') with a callback, so our error factory renders its failures. */
@@ -58,6 +58,14 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
   }));
   r.get('/auth/me', signedIn(), json((req) => auth.me(user(req).id)));
   r.patch('/auth/me', signedIn(), validate({ body: updateMeInput }), json((req) => auth.updateMe(user(req).id, req.body)));
+  // A new password from a signed-in session: the other sessions end, this one starts afresh (a new id and epoch).
+  r.post('/auth/password', signedIn(), validate({ body: changePasswordInput }), json(async (req) => {
+    const result = await auth.changePassword(user(req).id, req.body, req.ip ?? 'unknown');
+    req.log.info({ event: 'security.password-changed', ...requester(req) }, 'password changed');
+    await signIn(req, result.user);
+    logSignIn(req, 'password-change');
+    return result;
+  }));
   r.post('/auth/password-reset', publicRoute(), validate({ body: resetRequestInput }), json(async (req) => {
     req.log.info({ event: 'security.reset-requested', account: accountRef(req.body.email), ...requester(req) }, 'password reset asked for');
     await auth.requestReset(req.body.email, req.ip ?? 'unknown');

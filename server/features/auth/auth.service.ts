@@ -1,6 +1,6 @@
 import crypto from 'node:crypto';
 import bcrypt from 'bcryptjs';
-import type { LoginInput, ResetConfirmInput, SignupInput, UpdateMeInput } from '../../../shared/schemas/auth';
+import type { ChangePasswordInput, LoginInput, ResetConfirmInput, SignupInput, UpdateMeInput } from '../../../shared/schemas/auth';
 import { addMs, HOUR, iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
@@ -163,6 +163,50 @@ export function authService(deps: {
           trx,
         );
         return r.user_id as number;
+      });
+      mailer.kick();
+      return me(userId);
+    },
+
+    /**
+     * A signed-in person's new password, given the current one (ASVS 2.1.5, 2.1.6). A wrong current password
+     * counts against the account like a failed sign-in, so a stolen session cannot guess it at will. Every other
+     * session of the person ends (the route signs this one in afresh), and an e-mail says what happened.
+     */
+    async changePassword(userId: number, input: ChangePasswordInput, ip: string) {
+      const u = await repo.findUserById(userId);
+      if (!u) throw errors.unauthenticated();
+      const key = `account:${u.email.toLowerCase()}`;
+      const since = iso(addMs(clock.now(), -THROTTLE_WINDOW_MS));
+      if ((await repo.countFailures(key, since)) >= THROTTLE_LIMITS.account) {
+        const oldest = await repo.oldestFailure(key, since);
+        throw errors.throttled((oldest ? new Date(oldest).getTime() + THROTTLE_WINDOW_MS - clock.now().getTime() : THROTTLE_WINDOW_MS) / 1000);
+      }
+      if (!(await bcrypt.compare(bcryptInput(input.currentPassword), u.password_hash))) {
+        await repo.addFailure(key, now());
+        await repo.addFailure(`address:${ip}`, now());
+        throw errors.field('currentPassword', 'That is not your current password.');
+      }
+      if (await bcrypt.compare(bcryptInput(input.newPassword), u.password_hash)) throw errors.field('newPassword', 'Choose a password other than the current one.');
+      const passwordHash = await hash(input.newPassword);
+      await db.transaction(async (trx) => {
+        await repo.updateUser(userId, { password_hash: passwordHash }, now(), trx);
+        await repo.endSessions(userId, trx);
+        await mailer.enqueue(
+          {
+            to: u.email,
+            template: 'password-changed',
+            ...templates.notice({
+              subject: 'Your Sablework password was changed',
+              lines: [
+                `Hello ${u.name},`,
+                'The password of this account was just changed from a signed-in session, and every other device that was signed in has been signed out.',
+                'If it was not you, ask for a reset link from the sign-in page straight away.',
+              ],
+            }),
+          },
+          trx,
+        );
       });
       mailer.kick();
       return me(userId);

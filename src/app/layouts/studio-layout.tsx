@@ -1,5 +1,5 @@
 import { Suspense, useEffect, useId, useRef, useState, type ReactNode } from 'react';
-import { Ellipsis } from 'lucide-react';
+import { Ellipsis, UserRound } from 'lucide-react';
 import { useQuery } from '@tanstack/react-query';
 import { Link, Outlet, useLocation, useParams } from 'react-router-dom';
 import type { Membership, MeResponse } from '../../../shared/schemas/auth';
@@ -41,9 +41,11 @@ function Header({ me, membership, studioName }: { me: MeResponse; membership: Me
           {membership.role !== 'client' && <RunningTimer studioId={membership.studioId} />}
           <EmailNoticesButton on={me.user.emailNotices} role={membership.role} />
           <StudioSwitcher memberships={me.memberships} currentId={membership.studioId} />
-          <span className="hidden max-w-48 truncate text-sm text-sable-600 md:inline" title={me.user.email}>
-            {me.user.name}
-          </span>
+          <Link to="/account" className="inline-flex min-h-10 min-w-10 items-center justify-center gap-2 rounded-control px-2 text-sm text-sable-600 no-underline hover:bg-primer-100" title={me.user.email}>
+            <UserRound aria-hidden="true" className="size-5 md:hidden" />
+            <span className="sr-only">Your account: </span>
+            <span className="hidden max-w-48 truncate md:inline">{me.user.name}</span>
+          </Link>
           <SignOutButton />
         </div>
       </div>

@@ -1,3 +1,4 @@
+import { Link } from 'react-router-dom';
 import { BrandLink } from '../../components/layout/brand';
 import { PageTitle } from '../../components/ui/page-title';
 import { useMe } from '../../features/auth/api/get-me';
@@ -14,7 +15,9 @@ export default function StudiosPage() {
       <header className="flex min-h-14 items-center justify-between gap-3 border-b border-primer-300 bg-bone-50 px-3 sm:px-5">
         <BrandLink to="/studios" />
         <div className="flex items-center gap-3">
-          <span className="hidden text-sm text-sable-600 sm:inline">{me.user.name}</span>
+          <Link to="/account" className="text-sm">
+            Your account
+          </Link>
           <SignOutButton />
         </div>
       </header>
