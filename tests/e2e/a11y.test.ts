@@ -99,6 +99,15 @@ describe('no serious or critical axe findings (WCAG 2.1 A and AA)', () => {
     await page.goto(`${at}/calendar`);
     found.push(...(await scan(page, 'timeline', () => page.getByRole('list', { name: 'Commissions in queue order' }).getByRole('link').first().waitFor())));
 
+    // The account screen, reached from the top bar, with a field error showing (a wrong current password).
+    await page.goto(at);
+    await page.getByRole('link', { name: /Your account/ }).click();
+    await page.getByLabel('Current password').fill('not the password at all');
+    await page.getByLabel('New password', { exact: true }).fill('a long enough new one');
+    await page.getByLabel('New password again').fill('a long enough new one');
+    await page.getByRole('button', { name: 'Change password' }).click();
+    found.push(...(await scan(page, 'account, with a field error', () => page.getByText('That is not your current password.').waitFor())));
+
     await context.close();
     expect(found, report(found)).toEqual([]);
   }, 300_000);
