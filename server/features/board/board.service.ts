@@ -2,10 +2,10 @@ import { progressFromTotals, waitUntil } from '../../../shared/commission-lifecy
 import { sortHazards } from '../../../shared/hazards';
 import type { Board, BoardCard, BoardQuery } from '../../../shared/schemas/commissions';
 import type { Clock } from '../../lib/clock';
+import { versionCache } from '../../lib/version-cache';
 import type { StudioSetupService } from '../studio-setup/studio-setup.service';
 import { parseKeys } from '../studio-setup/studio-setup.repository';
 import { deepFreeze } from '../schedule/forecast-cache';
-import { boardCache } from './board-cache';
 import type { BoardRepository, BoardWaitRow } from './board.repository';
 
 /** The end of a wait from an earlier done stage that still runs: the figure should not go on before it. */
@@ -54,7 +54,7 @@ const keyOf = (q: BoardQuery) => [q.limit, q.offset, q.painterId ?? '', q.commis
 export function boardService(deps: { repo: BoardRepository; setup: StudioSetupService; clock: Clock; cacheRows?: number }) {
   const { repo, setup, clock } = deps;
   const maxRows = deps.cacheRows ?? 50_000;
-  const cache = maxRows > 0 ? boardCache<Kept>({ maxWeight: maxRows, weigh: (k) => k.cards.length + k.template.length + 1 }) : null;
+  const cache = maxRows > 0 ? versionCache<Kept>({ maxWeight: maxRows, weigh: (k) => k.cards.length + k.template.length + 1 }) : null;
 
   async function read(studioId: number, q: BoardQuery): Promise<Kept> {
     const [rows, total] = await Promise.all([repo.page(studioId, q), repo.count(studioId, q)]);

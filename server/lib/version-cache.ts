@@ -1,10 +1,13 @@
 /**
- * What the board read from the database, kept in memory per studio, schedule version and query.
+ * What a read gave from the database, kept in memory per studio, schedule version and query: the bench
+ * board's (server/features/board/board.service.ts) and the commission list's
+ * (server/features/commissions/commissions.service.ts), each its own store.
  *
- * An entry is good for one studio, one `schedule_version` (moved by database triggers whenever a row the
- * board reads changes: migrations/20270121120000-schedule-version.ts and 20270203120000-board-version.ts)
- * and one query (filters and page, `key`). Unlike the forecast there is no minute in the key: what is kept
- * does not depend on the clock (the cards' waits are worked out from it per request).
+ * An entry is good for one studio, one `schedule_version` (moved by database triggers whenever a row such
+ * a read depends on changes: migrations/20270121120000-schedule-version.ts, 20270203120000-board-version.ts,
+ * 20270204120000-commission-list-version.ts) and one query (filters and page, `key`). Unlike the forecast
+ * there is no minute in the key: what is kept must not depend on the clock (the board works its cards'
+ * waits out per request).
  *
  * Bounded by weight (rows held), least recently used out first. A lookup shares a read still running for
  * the same key, so many requests after a write read the database once. When an entry of a newer version
@@ -15,7 +18,7 @@
 
 type Entry<V> = { studioId: number; version: number; weight: number; value: Promise<V> };
 
-export function boardCache<V>(opts: { maxWeight: number; weigh: (v: V) => number }) {
+export function versionCache<V>(opts: { maxWeight: number; weigh: (v: V) => number }) {
   const entries = new Map<string, Entry<V>>(); // least recently used first
   /** Per studio: the newest version kept and the keys of its entries. */
   const studios = new Map<number, { version: number; keys: Set<string> }>();

@@ -1,13 +1,13 @@
 import { describe, expect, it } from 'vitest';
-import { boardCache } from '../../server/features/board/board-cache';
+import { versionCache } from '../../server/lib/version-cache';
 
-// The in-memory store behind the bench board cache (server/features/board/board.service.ts).
+// The in-memory store behind the bench board and commission list caches (server/lib/version-cache.ts).
 
 const made = (rows: number) => ({ rows });
-const cache = (maxWeight = 10) => boardCache<{ rows: number }>({ maxWeight, weigh: (v) => v.rows });
+const cache = (maxWeight = 10) => versionCache<{ rows: number }>({ maxWeight, weigh: (v) => v.rows });
 const settle = () => new Promise((r) => setTimeout(r, 0));
 
-describe('the board cache', () => {
+describe('the version cache', () => {
   it('answers only for the same studio, version and query', async () => {
     const c = cache();
     await c.set(1, 5, 'a', Promise.resolve(made(1)));
