@@ -167,7 +167,7 @@ export async function createApp(config: Config) {
   studios.onStudioCreated((studioId, trx) => setup.seedDefaults(studioId, trx));
   const activity = activityService({ repo: activityRepository(db), clock: config.clock });
   const figures = figuresService({ db, repo: figuresRepository(db), setup, activity, clock: config.clock });
-  const commissions = commissionsService({ db, repo: commissionsRepository(db), figures, activity, clock: config.clock });
+  const commissions = commissionsService({ db, repo: commissionsRepository(db), figures, activity, clock: config.clock, listCacheRows: config.commissionListCacheRows });
   const time = timeService({ db, repo: timeRepository(db), figures, activity, clock: config.clock });
   const board = boardService({ repo: boardRepository(db), setup, clock: config.clock, cacheRows: config.boardCacheRows });
   // The calendar: painters' hours and days off, the queue and its forecast, the per-person calendar feeds.

@@ -60,6 +60,8 @@ export type Config = {
   forecastCacheStages?: number;
   /** Rows (figures) the in-memory bench board cache may hold across studios and queries (default 50,000); 0 turns it off. */
   boardCacheRows?: number;
+  /** Rows (commissions) the in-memory commission list cache may hold across studios and queries (default 20,000); 0 turns it off. */
+  commissionListCacheRows?: number;
 };
 
 export const DEMO_PASSWORD = 'paint-the-bench';

@@ -64,6 +64,16 @@ export function commissionsRepository(db: Db) {
     },
     get: (studioId: number, id: number, trx: Db = db) => base(trx, studioId).where('c.id', id).first(columns) as Promise<CommissionRow | undefined>,
     update: (trx: Db, studioId: number, id: number, patch: Record<string, unknown>) => trx('commissions').where({ studio_id: studioId, id }).update(patch),
+    /**
+     * The studio's schedule version: database triggers move it with every committed change to a row the
+     * list reads (migrations/20270204120000-commission-list-version.ts lists them). Undefined when there is
+     * no such studio.
+     */
+    version: (studioId: number) =>
+      db('studios')
+        .where({ id: studioId })
+        .first('schedule_version')
+        .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined)),
     lastQueuePosition: (studioId: number, trx: Db = db) =>
       trx('commissions').where({ studio_id: studioId }).max({ p: 'queue_position' }).first().then((r) => Number(r?.p ?? 0)),
 

@@ -19,8 +19,10 @@ import type {
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
+import { versionCache } from '../../lib/version-cache';
 import type { ActivityService } from '../activity/activity.service';
 import type { Actor, FiguresService } from '../figures/figures.service';
+import { deepFreeze } from '../schedule/forecast-cache';
 import type { CommissionListRow, CommissionRow, CommissionsRepository } from './commissions.repository';
 
 const num = (v: number | string | null | undefined) => Number(v ?? 0);
@@ -62,8 +64,46 @@ const listTotals = (r: CommissionListRow): ProgressTotals => ({
   minutesDone: num(r.minutes_done),
 });
 
-export function commissionsService(deps: { db: Db; repo: CommissionsRepository; figures: FiguresService; activity: ActivityService; clock: Clock }) {
+/** A list query with its client scope (a client's own commissions), as the repository takes it. */
+type ListQuery = CommissionListQuery & { onlyClientId?: number };
+/** What the list read from the database for one studio, version and query, as answered, frozen. */
+type KeptList = { items: readonly CommissionSummary[]; total: number };
+
+/**
+ * The cache key of a list query: every field that can change the answer, normalised so that queries the
+ * database answers alike share an entry (the search is matched lower-cased, the statuses as a set).
+ */
+const listKeyOf = (q: ListQuery) =>
+  JSON.stringify([q.limit, q.offset, q.q?.toLowerCase() ?? '', q.status?.length ? [...new Set(q.status)].sort() : [], q.clientId ?? null, q.onlyClientId ?? null]);
+
+/**
+ * `listCacheRows`: the commission list's page read is kept in memory per studio, `schedule_version` and
+ * query (rows held across studios and queries, default 20,000; 0: no cache). Database triggers move the
+ * version with every write to a row the list reads (migrations/20270204120000-commission-list-version.ts
+ * lists them); while it stands, a request reads only the version. Nothing in a list row depends on the clock.
+ */
+export function commissionsService(deps: { db: Db; repo: CommissionsRepository; figures: FiguresService; activity: ActivityService; clock: Clock; listCacheRows?: number }) {
   const { db, repo, figures, activity, clock } = deps;
+  const listRows = deps.listCacheRows ?? 20_000;
+  const listCache = listRows > 0 ? versionCache<KeptList>({ maxWeight: listRows, weigh: (k) => k.items.length + 1 }) : null;
+
+  async function readList(studioId: number, q: ListQuery): Promise<KeptList> {
+    const { rows, total } = await repo.list(studioId, q);
+    return deepFreeze({ items: rows.map((r) => summaryOf(r, listTotals(r), num(r.figure_count), num(r.model_count))), total });
+  }
+
+  /**
+   * The kept page for this studio and query, or a new read. The version is read first and the data after
+   * it: a write committed between the two only makes the data kept newer than its key, never older, and
+   * the next request reads the newer version and misses (the board's argument, board.service.ts).
+   */
+  async function keptList(studioId: number, q: ListQuery): Promise<KeptList> {
+    if (!listCache) return readList(studioId, q);
+    const version = await repo.version(studioId);
+    if (version === undefined) return readList(studioId, q);
+    const key = listKeyOf(q);
+    return listCache.get(studioId, version, key) ?? listCache.set(studioId, version, key, readList(studioId, q));
+  }
   const now = () => iso(clock.now());
   const statusHooks: StatusChangeHook[] = [];
   const statusGuards: StatusChangeGuard[] = [];
@@ -120,9 +160,9 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
     async list(actor: Actor, q: CommissionListQuery): Promise<Page<CommissionSummary>> {
       // A client sees only the commissions of their own client record; without one, none.
       const onlyClientId = actor.role === 'client' ? (actor.clientId ?? -1) : undefined;
-      const { rows, total } = await repo.list(actor.studioId, { ...q, onlyClientId });
+      const { items, total } = await keptList(actor.studioId, { ...q, onlyClientId });
       return {
-        items: rows.map((r) => summaryOf(r, listTotals(r), num(r.figure_count), num(r.model_count))),
+        items: items as CommissionSummary[],
         total,
         limit: q.limit,
         offset: q.offset,
