@@ -156,7 +156,8 @@ describe('no serious or critical axe findings (WCAG 2.1 A and AA)', () => {
     await more.click();
     await bar.getByRole('link', { name: 'Paints & recipes' }).click();
     await painter.page.waitForURL(/\/paints$/);
-    expect(await more.getAttribute('aria-expanded')).toBe('false');
+    // the panel closes as the new screen renders (a moment after the address changes)
+    await painter.page.waitForFunction(() => document.querySelector('nav[aria-label="Studio"] button[aria-expanded]')?.getAttribute('aria-expanded') === 'false', undefined, { timeout: 5_000 });
     await painter.context.close();
     expect(found, report(found)).toEqual([]);
   }, 300_000);
