@@ -200,6 +200,21 @@ describe('reading an unchanged list', () => {
     }
   });
 
+  it('queries the database answers alike share an entry (statuses in another order, a search in other case); others do not', async () => {
+    await ok(callers.fresh.owner.patch(`${base}/commissions/${ids.reed}`, { title: 'Reed skiff, shared' }));
+    const read = async (s: string) => {
+      const { value, sql } = await withQueries(cached.db, () => ok(callers.cached.owner.get(`${base}/commissions${s}`)));
+      expect(value.body).toEqual((await ok(callers.fresh.owner.get(`${base}/commissions${s}`))).body);
+      return listReads(sql).length;
+    };
+    expect(await read('?status=on_bench,booked')).toBeGreaterThan(0);
+    expect(await read('?status=booked,on_bench,booked')).toBe(0);
+    expect(await read('?q=Reed')).toBeGreaterThan(0);
+    expect(await read('?q=rEED')).toBe(0);
+    expect(await read('?q=reed&limit=1')).toBeGreaterThan(0);
+    expect(await read('?status=booked')).toBeGreaterThan(0);
+  });
+
   it("a client never gets another client's kept list, nor the owner's", async () => {
     await ok(callers.fresh.owner.patch(`${base}/commissions/${ids.reed}`, { title: 'Reed skiff, scoped' }));
     const owner = (await ok(callers.cached.owner.get(`${base}/commissions`))).body;
