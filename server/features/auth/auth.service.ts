@@ -49,6 +49,32 @@ export function authService(deps: {
   let dummyHash: Promise<string> | null = null;
   const unknownAccountHash = () => (dummyHash ??= bcrypt.hash('not-a-real-password-for-timing', deps.bcryptRounds));
 
+  /** 429 with the wait until the oldest failure in the window runs out, when any of the counts is at its limit. */
+  async function refuseWhileThrottled(keys: { key: string; max: number }[]) {
+    const since = iso(addMs(clock.now(), -THROTTLE_WINDOW_MS));
+    let retryMs = 0;
+    for (const k of keys) {
+      if ((await repo.countFailures(k.key, since)) < k.max) continue;
+      const oldest = await repo.oldestFailure(k.key, since);
+      retryMs = Math.max(retryMs, oldest ? new Date(oldest).getTime() + THROTTLE_WINDOW_MS - clock.now().getTime() : THROTTLE_WINDOW_MS);
+    }
+    if (retryMs > 0) throw errors.throttled(retryMs / 1000);
+  }
+
+  /** The e-mail that a password changed (ASVS 2.2.3), queued in the transaction that changed it. */
+  const tellPasswordChanged = (u: { email: string; name: string }, how: string, trx: Db) =>
+    mailer.enqueue(
+      {
+        to: u.email,
+        template: 'password-changed',
+        ...templates.notice({
+          subject: 'Your Sablework password was changed',
+          lines: [`Hello ${u.name},`, `The password of this account was just changed ${how}.`, 'If it was not you, ask for a new reset link from the sign-in page straight away.'],
+        }),
+      },
+      trx,
+    );
+
   async function me(userId: number) {
     const u = await repo.findUserById(userId);
     if (!u) throw errors.unauthenticated();
@@ -84,14 +110,7 @@ export function authService(deps: {
         { key: `account:${email}`, max: THROTTLE_LIMITS.account },
         { key: `address:${ip}`, max: THROTTLE_LIMITS.address },
       ];
-      const since = iso(addMs(clock.now(), -THROTTLE_WINDOW_MS));
-      let retryMs = 0;
-      for (const k of keys) {
-        if ((await repo.countFailures(k.key, since)) < k.max) continue;
-        const oldest = await repo.oldestFailure(k.key, since);
-        retryMs = Math.max(retryMs, oldest ? new Date(oldest).getTime() + THROTTLE_WINDOW_MS - clock.now().getTime() : THROTTLE_WINDOW_MS);
-      }
-      if (retryMs > 0) throw errors.throttled(retryMs / 1000);
+      await refuseWhileThrottled(keys);
       const u = await repo.findUserByEmail(input.email);
       const ok = await bcrypt.compare(bcryptInput(input.password), u?.password_hash ?? (await unknownAccountHash()));
       if (!u || !ok) {
@@ -147,21 +166,7 @@ export function authService(deps: {
         await repo.endSessions(r.user_id, trx);
         await repo.dropOtherResets(r.user_id, r.id, now(), trx);
         const u = (await repo.findUserById(r.user_id, trx))!;
-        await mailer.enqueue(
-          {
-            to: u.email,
-            template: 'password-changed',
-            ...templates.notice({
-              subject: 'Your Sablework password was changed',
-              lines: [
-                `Hello ${u.name},`,
-                'The password of this account was just changed through a reset link, and every device that was signed in has been signed out.',
-                'If it was not you, ask for a new reset link from the sign-in page straight away.',
-              ],
-            }),
-          },
-          trx,
-        );
+        await tellPasswordChanged(u, 'through a reset link, and every device that was signed in has been signed out', trx);
         return r.user_id as number;
       });
       mailer.kick();
@@ -177,11 +182,7 @@ export function authService(deps: {
       const u = await repo.findUserById(userId);
       if (!u) throw errors.unauthenticated();
       const key = `account:${u.email.toLowerCase()}`;
-      const since = iso(addMs(clock.now(), -THROTTLE_WINDOW_MS));
-      if ((await repo.countFailures(key, since)) >= THROTTLE_LIMITS.account) {
-        const oldest = await repo.oldestFailure(key, since);
-        throw errors.throttled((oldest ? new Date(oldest).getTime() + THROTTLE_WINDOW_MS - clock.now().getTime() : THROTTLE_WINDOW_MS) / 1000);
-      }
+      await refuseWhileThrottled([{ key, max: THROTTLE_LIMITS.account }]);
       if (!(await bcrypt.compare(bcryptInput(input.currentPassword), u.password_hash))) {
         await repo.addFailure(key, now());
         await repo.addFailure(`address:${ip}`, now());
@@ -192,21 +193,7 @@ export function authService(deps: {
       await db.transaction(async (trx) => {
         await repo.updateUser(userId, { password_hash: passwordHash }, now(), trx);
         await repo.endSessions(userId, trx);
-        await mailer.enqueue(
-          {
-            to: u.email,
-            template: 'password-changed',
-            ...templates.notice({
-              subject: 'Your Sablework password was changed',
-              lines: [
-                `Hello ${u.name},`,
-                'The password of this account was just changed from a signed-in session, and every other device that was signed in has been signed out.',
-                'If it was not you, ask for a reset link from the sign-in page straight away.',
-              ],
-            }),
-          },
-          trx,
-        );
+        await tellPasswordChanged(u, 'from a signed-in session, and every other device that was signed in has been signed out', trx);
       });
       mailer.kick();
       return me(userId);
