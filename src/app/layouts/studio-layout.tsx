@@ -16,7 +16,7 @@ import { RunningTimer } from '../../features/time/components/running-timer';
 import { SignOutButton } from '../components/sign-out-button';
 import { SkipLink } from '../components/skip-link';
 import { StudioSwitcher } from '../components/studio-switcher';
-import { navFor, navItemIsCurrent } from '../nav';
+import { navFor, navItemIsCurrent, type NavItem } from '../nav';
 
 /** The path below /studio/:studioId, without slashes at the ends: '' on the studio's home. */
 function useStudioRest(base: string) {
@@ -53,6 +53,24 @@ function Header({ me, membership, studioName }: { me: MeResponse; membership: Me
   );
 }
 
+/** An entry of the rail, or of the phone's "More" panel: icon and label in a row, the current one marked. */
+function ListEntry({ item, base, current, className, iconClassName }: { item: NavItem; base: string; current: boolean; className: string; iconClassName: string }) {
+  return (
+    <Link
+      to={item.to ? `${base}/${item.to}` : base}
+      aria-current={current ? 'page' : undefined}
+      className={cn(
+        'flex items-center gap-3 rounded-control px-3 text-sm text-sable-900 no-underline hover:bg-primer-100',
+        className,
+        current && 'bg-verdigris-100 font-semibold hover:bg-verdigris-100',
+      )}
+    >
+      <item.icon aria-hidden="true" className={cn('shrink-0', iconClassName)} />
+      {item.label}
+    </Link>
+  );
+}
+
 function Rail({ membership }: { membership: Membership }) {
   const items = navFor(membership.role);
   const base = `/studio/${membership.studioId}`;
@@ -62,19 +80,7 @@ function Rail({ membership }: { membership: Membership }) {
       <ul className="sticky top-14 flex flex-col gap-1 p-3">
         {items.map((item) => (
           <li key={item.label}>
-            <Link
-              to={item.to ? `${base}/${item.to}` : base}
-              aria-current={navItemIsCurrent(item, rest) ? 'page' : undefined}
-              className={
-                cn(
-                  'flex min-h-10 items-center gap-3 rounded-control px-3 text-sm text-sable-900 no-underline hover:bg-primer-100',
-                  navItemIsCurrent(item, rest) && 'bg-verdigris-100 font-semibold hover:bg-verdigris-100',
-                )
-              }
-            >
-              <item.icon aria-hidden="true" className="size-4 shrink-0" />
-              {item.label}
-            </Link>
+            <ListEntry item={item} base={base} current={navItemIsCurrent(item, rest)} className="min-h-10" iconClassName="size-4" />
           </li>
         ))}
       </ul>
@@ -130,17 +136,7 @@ function BottomBar({ membership }: { membership: Membership }) {
         <ul id={panelId} className="absolute inset-x-0 bottom-full flex flex-col gap-1 border-t border-primer-300 bg-bone-50 p-2 shadow-lg">
           {more.map((item) => (
             <li key={item.label}>
-              <Link
-                to={item.to ? `${base}/${item.to}` : base}
-                aria-current={navItemIsCurrent(item, rest) ? 'page' : undefined}
-                className={cn(
-                  'flex min-h-12 items-center gap-3 rounded-control px-3 text-sm text-sable-900 no-underline hover:bg-primer-100',
-                  navItemIsCurrent(item, rest) && 'bg-verdigris-100 font-semibold hover:bg-verdigris-100',
-                )}
-              >
-                <item.icon aria-hidden="true" className="size-5 shrink-0" />
-                {item.label}
-              </Link>
+              <ListEntry item={item} base={base} current={navItemIsCurrent(item, rest)} className="min-h-12" iconClassName="size-5" />
             </li>
           ))}
         </ul>
