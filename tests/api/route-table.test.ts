@@ -21,6 +21,7 @@ const table: Row[] = [
   ['POST', '/api/auth/logout', 204, 204, 204, 204, 204],
   ['GET', '/api/auth/me', 401, 200, 200, 200, 200],
   ['PATCH', '/api/auth/me', 401, 200, 200, 200, 200],
+  ['POST', '/api/auth/password', 401, 400, 400, 400, 400],
   ['POST', '/api/auth/password-reset', 400, 400, 400, 400, 400],
   ['POST', '/api/auth/password-reset/confirm', 400, 400, 400, 400, 400],
   ['GET', '/api/invitations/:token', 404, 404, 404, 404, 404],
