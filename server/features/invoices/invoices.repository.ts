@@ -235,9 +235,14 @@ export function invoicesRepository(db: Db) {
     },
     checkoutsOf: (studioId: number, invoiceId: number, trx: Db = db) =>
       trx('checkouts').where({ studio_id: studioId, invoice_id: invoiceId }).orderBy('id', 'desc').then((rows) => rows.map((r) => ({ ...r, amount: n(r.amount) }) as CheckoutRow)),
+    /**
+     * The checkout of a payment session. Inside a transaction its row is locked (FOR UPDATE; SQLite runs one
+     * transaction at a time and Knex leaves it out there): two events for one checkout at the same moment then
+     * take turns, and the second reads the checkout and invoice as the first left them (paid), instead of a
+     * paid invoice beside a checkout still open, which would flag a payment that was only a repeat.
+     */
     checkoutBySession: (sessionId: string, trx: Db = db) =>
-      trx('checkouts')
-        .where({ session_id: sessionId })
+      (trx.isTransaction ? trx('checkouts').where({ session_id: sessionId }).forUpdate() : trx('checkouts').where({ session_id: sessionId }))
         .first()
         .then((r) => (r ? ({ ...r, amount: n(r.amount) } as CheckoutRow) : undefined)),
     updateCheckout: (trx: Db, id: number, patch: Record<string, unknown>) => trx('checkouts').where({ id }).update(patch),
