@@ -16,6 +16,19 @@
  * entry and reads for itself).
  */
 
+import type { Db } from './db';
+
+/**
+ * The studio's schedule version: database triggers move it with every committed change to a row the
+ * forecast, the board or the commission list reads (the migrations above list them). Undefined when there
+ * is no such studio.
+ */
+export const scheduleVersion = (db: Db, studioId: number): Promise<number | undefined> =>
+  db('studios')
+    .where({ id: studioId })
+    .first('schedule_version')
+    .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined));
+
 type Entry<V> = { studioId: number; version: number; weight: number; value: Promise<V> };
 
 export function versionCache<V>(opts: { maxWeight: number; weigh: (v: V) => number }) {
@@ -89,5 +102,22 @@ export function versionCache<V>(opts: { maxWeight: number; weigh: (v: V) => numb
 
     /** Entries kept and the weight they hold (for tests). */
     size: () => ({ entries: entries.size, weight: total }),
+  };
+}
+
+/**
+ * A read kept by studio version and key: `read()` once per version and key, or every time when `maxWeight`
+ * is 0 (no cache) or the studio is unknown. The version is read first and the data after it: a write
+ * committed between the two only makes the data kept newer than its key, never older, and the next request
+ * reads the newer version and misses. Whoever reads a version after a write's commit therefore never gets
+ * data from before that write, on any instance.
+ */
+export function keptReads<V>(opts: { version: (studioId: number) => Promise<number | undefined>; maxWeight: number; weigh: (v: V) => number }) {
+  const cache = opts.maxWeight > 0 ? versionCache<V>(opts) : null;
+  return async (studioId: number, key: string, read: () => Promise<V>): Promise<V> => {
+    if (!cache) return read();
+    const version = await opts.version(studioId);
+    if (version === undefined) return read();
+    return cache.get(studioId, version, key) ?? cache.set(studioId, version, key, read());
   };
 }

@@ -1,6 +1,7 @@
 import { boardStatuses, type StageStatus } from '../../../shared/commission-lifecycle';
 import type { BoardQuery } from '../../../shared/schemas/commissions';
 import type { Db } from '../../lib/db';
+import { scheduleVersion } from '../../lib/version-cache';
 
 /**
  * A figure of the page with its commission, its painter and what the figure row keeps of its stages
@@ -50,11 +51,7 @@ export function boardRepository(db: Db) {
      * board reads (migrations/20270121120000-schedule-version.ts, 20270203120000-board-version.ts).
      * Undefined when there is no such studio.
      */
-    version: (studioId: number) =>
-      db('studios')
-        .where({ id: studioId })
-        .first('schedule_version')
-        .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined)),
+    version: (studioId: number) => scheduleVersion(db, studioId),
     /**
      * One page of the figures of the board's commissions, in the board's order (the commission order, then
      * figure id), with their painters. The commissions (a hundred or so rows, narrow) are sorted first, in a

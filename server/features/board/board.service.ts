@@ -2,7 +2,7 @@ import { progressFromTotals, waitUntil } from '../../../shared/commission-lifecy
 import { sortHazards } from '../../../shared/hazards';
 import type { Board, BoardCard, BoardQuery } from '../../../shared/schemas/commissions';
 import type { Clock } from '../../lib/clock';
-import { versionCache } from '../../lib/version-cache';
+import { keptReads } from '../../lib/version-cache';
 import type { StudioSetupService } from '../studio-setup/studio-setup.service';
 import { parseKeys } from '../studio-setup/studio-setup.repository';
 import { deepFreeze } from '../schedule/forecast-cache';
@@ -54,7 +54,7 @@ const keyOf = (q: BoardQuery) => [q.limit, q.offset, q.painterId ?? '', q.commis
 export function boardService(deps: { repo: BoardRepository; setup: StudioSetupService; clock: Clock; cacheRows?: number }) {
   const { repo, setup, clock } = deps;
   const maxRows = deps.cacheRows ?? 50_000;
-  const cache = maxRows > 0 ? versionCache<Kept>({ maxWeight: maxRows, weigh: (k) => k.cards.length + k.template.length + 1 }) : null;
+  const kept = keptReads<Kept>({ version: repo.version, maxWeight: maxRows, weigh: (k) => k.cards.length + k.template.length + 1 });
 
   async function read(studioId: number, q: BoardQuery): Promise<Kept> {
     const [rows, total] = await Promise.all([repo.page(studioId, q), repo.count(studioId, q)]);
@@ -84,24 +84,10 @@ export function boardService(deps: { repo: BoardRepository; setup: StudioSetupSe
     return deepFreeze({ template, cards, total });
   }
 
-  /**
-   * The kept read for this studio and query, or a new one. The version is read first and the data after
-   * it: a write committed between the two only makes the data kept newer than its key, never older, and
-   * the next request reads the newer version and misses. Whoever reads a version after a write's commit
-   * therefore never gets data from before that write, on any instance.
-   */
-  async function kept(studioId: number, q: BoardQuery): Promise<Kept> {
-    if (!cache) return read(studioId, q);
-    const version = await repo.version(studioId);
-    if (version === undefined) return read(studioId, q);
-    const key = keyOf(q);
-    return cache.get(studioId, version, key) ?? cache.set(studioId, version, key, read(studioId, q));
-  }
-
   return {
     /** Columns are the template's stages in order, then any stage no longer in the template, then "done". */
     async get(studioId: number, q: BoardQuery): Promise<Board> {
-      const k = await kept(studioId, q);
+      const k = await kept(studioId, keyOf(q), () => read(studioId, q));
       const columns = new Map<string, { key: string; name: string; cards: BoardCard[] }>();
       for (const s of k.template) columns.set(s.key, { key: s.key, name: s.name, cards: [] });
       const done: BoardCard[] = [];

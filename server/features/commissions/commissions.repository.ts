@@ -1,6 +1,7 @@
 import type { CommissionStatus, Priority } from '../../../shared/commission-lifecycle';
 import type { CommissionListQuery } from '../../../shared/schemas/commissions';
 import type { Db } from '../../lib/db';
+import { scheduleVersion } from '../../lib/version-cache';
 import { pageRows } from '../../lib/page';
 
 export type CommissionRow = {
@@ -69,11 +70,7 @@ export function commissionsRepository(db: Db) {
      * list reads (migrations/20270204120000-commission-list-version.ts lists them). Undefined when there is
      * no such studio.
      */
-    version: (studioId: number) =>
-      db('studios')
-        .where({ id: studioId })
-        .first('schedule_version')
-        .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined)),
+    version: (studioId: number) => scheduleVersion(db, studioId),
     lastQueuePosition: (studioId: number, trx: Db = db) =>
       trx('commissions').where({ studio_id: studioId }).max({ p: 'queue_position' }).first().then((r) => Number(r?.p ?? 0)),
 

@@ -19,7 +19,7 @@ import type {
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
-import { versionCache } from '../../lib/version-cache';
+import { keptReads } from '../../lib/version-cache';
 import type { ActivityService } from '../activity/activity.service';
 import type { Actor, FiguresService } from '../figures/figures.service';
 import { deepFreeze } from '../schedule/forecast-cache';
@@ -85,25 +85,13 @@ const listKeyOf = (q: ListQuery) =>
 export function commissionsService(deps: { db: Db; repo: CommissionsRepository; figures: FiguresService; activity: ActivityService; clock: Clock; listCacheRows?: number }) {
   const { db, repo, figures, activity, clock } = deps;
   const listRows = deps.listCacheRows ?? 20_000;
-  const listCache = listRows > 0 ? versionCache<KeptList>({ maxWeight: listRows, weigh: (k) => k.items.length + 1 }) : null;
+  const keptList = keptReads<KeptList>({ version: repo.version, maxWeight: listRows, weigh: (k) => k.items.length + 1 });
 
   async function readList(studioId: number, q: ListQuery): Promise<KeptList> {
     const { rows, total } = await repo.list(studioId, q);
     return deepFreeze({ items: rows.map((r) => summaryOf(r, listTotals(r), num(r.figure_count), num(r.model_count))), total });
   }
 
-  /**
-   * The kept page for this studio and query, or a new read. The version is read first and the data after
-   * it: a write committed between the two only makes the data kept newer than its key, never older, and
-   * the next request reads the newer version and misses (the board's argument, board.service.ts).
-   */
-  async function keptList(studioId: number, q: ListQuery): Promise<KeptList> {
-    if (!listCache) return readList(studioId, q);
-    const version = await repo.version(studioId);
-    if (version === undefined) return readList(studioId, q);
-    const key = listKeyOf(q);
-    return listCache.get(studioId, version, key) ?? listCache.set(studioId, version, key, readList(studioId, q));
-  }
   const now = () => iso(clock.now());
   const statusHooks: StatusChangeHook[] = [];
   const statusGuards: StatusChangeGuard[] = [];
@@ -160,7 +148,8 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
     async list(actor: Actor, q: CommissionListQuery): Promise<Page<CommissionSummary>> {
       // A client sees only the commissions of their own client record; without one, none.
       const onlyClientId = actor.role === 'client' ? (actor.clientId ?? -1) : undefined;
-      const { items, total } = await keptList(actor.studioId, { ...q, onlyClientId });
+      const scoped = { ...q, onlyClientId };
+      const { items, total } = await keptList(actor.studioId, listKeyOf(scoped), () => readList(actor.studioId, scoped));
       return {
         items: items as CommissionSummary[],
         total,

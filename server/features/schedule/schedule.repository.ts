@@ -1,5 +1,6 @@
 import type { CommissionStatus, StageStatus } from '../../../shared/commission-lifecycle';
 import type { Db } from '../../lib/db';
+import { scheduleVersion } from '../../lib/version-cache';
 
 export type QueueRow = {
   id: number;
@@ -80,11 +81,7 @@ export function scheduleRepository(db: Db) {
      * The studio's schedule version: database triggers move it with every committed change to a row the
      * forecast reads (migrations/20270121120000-schedule-version.ts). Undefined when there is no such studio.
      */
-    version: (studioId: number) =>
-      db('studios')
-        .where({ id: studioId })
-        .first('schedule_version')
-        .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined)),
+    version: (studioId: number) => scheduleVersion(db, studioId),
     userNames: (ids: number[], trx: Db = db) =>
       ids.length ? (trx('users').whereIn('id', ids).select('id', 'name') as Promise<{ id: number; name: string }[]>) : Promise.resolve([]),
   };
