@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { secondPainter, userId } from '../support/fixtures';
-import { PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
+import { idOf, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
 
 // The bench board keeps what it read in memory per studio, schedule version and query
 // (server/features/board/board.service.ts). Two app instances share one database (one SQLite file, or one
@@ -23,7 +23,6 @@ const callers: Record<'cached' | 'fresh', Record<Who, Caller>> = { cached: {} as
 const ids: Record<string, number> = {};
 let templateKeys: string[] = [];
 
-const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
 
 function at(time: string) {
   cached.clock.set(time);

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { userId } from '../support/fixtures';
-import { Caller, startTestApp, twoStudios, type TestApp } from '../support/app';
+import { Caller, idOf, startTestApp, twoStudios, type TestApp } from '../support/app';
 
 // The iCalendar feed of due and projected dates behind a secret per-person address.
 // Painter of studio A works 09:00–15:00 Mon–Fri in Berlin (08:00Z–14:00Z in early March 2026).
@@ -39,7 +39,6 @@ function parseIcs(text: string): { calendar: Record<string, string>; events: VEv
   return { calendar, events };
 }
 
-const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
 async function commission(title: string, painterId: number | null, minutes: number, due: string | null, clientId: number) {
   const now = sw.clock.now().toISOString();
   const c = idOf((await sw.db('commissions').insert({ studio_id: studioId, client_id: clientId, title, status: 'booked', due_date: due, created_at: now, updated_at: now }).returning('id'))[0]);

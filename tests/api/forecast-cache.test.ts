@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { userId } from '../support/fixtures';
-import { Caller, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type TestApp } from '../support/app';
+import { Caller, idOf, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type TestApp } from '../support/app';
 import { secondPainter } from '../support/fixtures';
 
 // The studio forecast is kept in memory per studio under the schedule version the database moves on
@@ -25,7 +25,6 @@ const callers: Record<'cached' | 'fresh', Record<Who, Caller>> = { cached: {} as
 const feeds: { owner: string; painter: string } = { owner: '', painter: '' };
 const ids: Record<string, number> = {};
 
-const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
 
 /** Both instances' clocks at one moment (they stand for two machines whose clocks agree). */
 function at(time: string) {

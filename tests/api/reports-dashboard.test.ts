@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { secondClient, userId } from '../support/fixtures';
-import { startTestApp, twoStudios, type Caller, type TestApp } from '../support/app';
+import { idOf, startTestApp, twoStudios, type Caller, type TestApp } from '../support/app';
 
 // Each role's home page from one small studio. Studio A is in Berlin (UTC+1 in early March 2026); its
 // painter works 09:00–15:00 (08:00Z–14:00Z) Monday to Friday: 30 h a week. Now: Monday 2 March, 08:00 local.
@@ -17,7 +17,6 @@ let painterId: number;
 let base: string;
 const ids: Record<string, number> = {};
 
-const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
 const now = () => sw.clock.now().toISOString();
 const insert = async (table: string, row: Record<string, unknown>) => idOf((await sw.db(table).insert(row).returning('id'))[0]);
 

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { userId } from '../support/fixtures';
-import { startTestApp, twoStudios, type Caller, type TestApp } from '../support/app';
+import { idOf, startTestApp, twoStudios, type Caller, type TestApp } from '../support/app';
 
 // The books on a small data set worked out by hand. Studio A (EUR, Europe/Berlin); its price table has
 // learning rate 0.8 and, for one 28 mm tabletop figure, basecoat 0.5 h and layer & highlight 1.0 h.
@@ -21,7 +21,6 @@ let painterId: number;
 let base: string;
 const k: Record<string, number> = {};
 
-const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
 const now = () => sw.clock.now().toISOString();
 
 async function insert(table: string, row: Record<string, unknown>) {

@@ -1,6 +1,6 @@
 import { afterAll, beforeAll, beforeEach, describe, expect, it } from 'vitest';
 import { secondClient, userId } from '../support/fixtures';
-import { startTestApp, twoStudios, type Caller, type TestApp } from '../support/app';
+import { idOf, startTestApp, twoStudios, type Caller, type TestApp } from '../support/app';
 
 // The forecast endpoint from database rows, with hand-worked dates. Studio A is in Europe/Berlin; its
 // painter works 09:00–15:00 Monday to Friday. In March 2026 Berlin is on UTC+1 until Sunday the 29th
@@ -16,7 +16,6 @@ let clientId: number;
 let painterId: number;
 let base: string;
 
-const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
 
 async function commission(title: string, stages: { key: string; minutes: number; wait?: number; status?: string; doneAt?: string }[], over: Record<string, unknown> = {}) {
   const now = sw.clock.now().toISOString();

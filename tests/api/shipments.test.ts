@@ -1,14 +1,13 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { DAY } from '../../server/lib/clock';
 import { CUSTOMS_CAUTION, defaultPackingItems } from '../../shared/schemas/shipments';
-import { mailTo, startTestApp, twoStudios, type TestApp } from '../support/app';
+import { idOf, mailTo, startTestApp, twoStudios, type TestApp } from '../support/app';
 import { insertCommission, insertFigure } from '../support/fixtures';
 
 let sw: TestApp;
 let s: Awaited<ReturnType<typeof twoStudios>>;
 let base: string;
 
-const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
 
 /** An issued invoice of the commission, written straight into the invoices table (its own API is tested elsewhere). */
 async function invoice(commissionId: number, kind: 'deposit' | 'balance', status: 'open' | 'partly_paid' | 'paid', total: number, paid: number) {

@@ -201,3 +201,6 @@ export async function withQueries<T>(db: SableworkApp['db'], fn: () => Promise<T
     db.off('query', onQuery);
   }
 }
+
+/** The id of a row just inserted: Knex answers `[{ id }]` with `returning('id')` on PostgreSQL and `[id]` on SQLite. */
+export const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
