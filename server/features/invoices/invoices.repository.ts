@@ -241,10 +241,12 @@ export function invoicesRepository(db: Db) {
      * take turns, and the second reads the checkout and invoice as the first left them (paid), instead of a
      * paid invoice beside a checkout still open, which would flag a payment that was only a repeat.
      */
-    checkoutBySession: (sessionId: string, trx: Db = db) =>
-      (trx.isTransaction ? trx('checkouts').where({ session_id: sessionId }).forUpdate() : trx('checkouts').where({ session_id: sessionId }))
+    checkoutBySession(sessionId: string, trx: Db = db) {
+      const q = trx('checkouts').where({ session_id: sessionId });
+      return (trx.isTransaction ? q.forUpdate() : q)
         .first()
-        .then((r) => (r ? ({ ...r, amount: n(r.amount) } as CheckoutRow) : undefined)),
+        .then((r) => (r ? ({ ...r, amount: n(r.amount) } as CheckoutRow) : undefined));
+    },
     updateCheckout: (trx: Db, id: number, patch: Record<string, unknown>) => trx('checkouts').where({ id }).update(patch),
     /**
      * Marks a checkout paid unless it is paid already; false when it was. One conditional update: on PostgreSQL a
