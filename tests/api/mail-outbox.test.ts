@@ -3,6 +3,7 @@ import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import { describe, expect, it } from 'vitest';
+import { SEND_CLAIM_MS } from '../../server/lib/mail/mailer';
 import { Caller, signUp, startTestApp } from '../support/app';
 
 /** A port with nothing listening: connections to it are refused. */
@@ -46,6 +47,30 @@ describe('mail outbox', () => {
     expect((await second.db('outbox').where({ to: 'resetme@example.test' }).first()).status).toBe('sent');
     await second.stop();
     fs.rmSync(dataDir, { recursive: true, force: true });
+  });
+
+  it('two processes delivering at once send each message once, and a claim left by a dead sender is taken up later', async () => {
+    // Two instances on one database, as WORKERS > 1 or several machines run: each runs its own delivery pass.
+    const a = await startTestApp();
+    const b = await startTestApp({ dataDir: a.dataDir });
+    b.clock.set(a.clock.now());
+    const to = Array.from({ length: 12 }, (_, i) => `both-${i}@example.test`);
+    for (const address of to) await a.mailer.enqueue({ to: address, template: 'test', subject: `for ${address}`, text: 'hello', html: '<p>hello</p>' });
+    const [sentByA, sentByB] = await Promise.all([a.jobs.deliverMail(), b.jobs.deliverMail()]);
+    expect(sentByA + sentByB).toBe(to.length);
+    const caught = await a.db('captured_mail').whereIn('to', to);
+    expect(caught.map((m) => m.to).sort()).toEqual([...to].sort());
+    expect(await a.db('outbox').whereIn('to', to).whereNot({ status: 'sent' })).toEqual([]);
+
+    // A sender that claimed a message and died: nobody sends it while the claim lasts, then it goes out once.
+    await a.mailer.enqueue({ to: 'orphan@example.test', template: 'test', subject: 'orphan', text: 'hello', html: '<p>hello</p>' });
+    await a.db('outbox').where({ to: 'orphan@example.test' }).update({ status: 'sending', next_attempt_at: new Date(a.clock.now().getTime() + SEND_CLAIM_MS).toISOString() });
+    expect(await b.jobs.deliverMail()).toBe(0);
+    b.clock.advance(SEND_CLAIM_MS + 1000);
+    expect(await b.jobs.deliverMail()).toBe(1);
+    expect(await a.db('captured_mail').where({ to: 'orphan@example.test' })).toHaveLength(1);
+    await b.close();
+    await a.stop();
   });
 
   it('/dev/mail lists captured messages with working links', async () => {

@@ -8,6 +8,12 @@ import type { Rendered } from './templates';
 export type OutgoingMail = Rendered & { to: string; template: string; studioId?: number | null };
 
 const MAX_ATTEMPTS = 12;
+/**
+ * How long a claimed message is left to the process sending it. Several processes (workers, instances) may run
+ * a pass at once: each claims a message before it sends it, so one sends it. One that dies mid-send leaves the
+ * claim, and the message is sent again after this (at least once, never twice at the same time).
+ */
+export const SEND_CLAIM_MS = 10 * 60_000;
 /** 1, 2, 4 … minutes, capped at an hour: a refusing server is retried for about half a day. */
 export const backoffMs = (attempts: number) => Math.min(60, 2 ** Math.max(0, attempts - 1)) * 60_000;
 
@@ -27,9 +33,13 @@ export function createMailer(opts: { db: Db; clock: Clock; smtp: { host: string;
 
   async function deliverDueOnce(): Promise<number> {
     const now = iso(clock.now());
-    const due = await db('outbox').where({ status: 'pending' }).andWhere('next_attempt_at', '<=', now).orderBy('id').limit(50);
+    const due = await db('outbox').whereIn('status', ['pending', 'sending']).andWhere('next_attempt_at', '<=', now).orderBy('id').limit(50);
     let sent = 0;
     for (const m of due) {
+      const claimed = await db('outbox')
+        .where({ id: m.id, status: m.status, next_attempt_at: m.next_attempt_at })
+        .update({ status: 'sending', next_attempt_at: iso(addMs(clock.now(), SEND_CLAIM_MS)) });
+      if (!claimed) continue; // another process took it since this pass read it
       try {
         await transport.sendMail({
           from: opts.from,
