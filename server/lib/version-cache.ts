@@ -1,7 +1,9 @@
 /**
  * What a read gave from the database, kept in memory per studio, schedule version and query: the bench
  * board's (server/features/board/board.service.ts) and the commission list's
- * (server/features/commissions/commissions.service.ts), each its own store.
+ * (server/features/commissions/commissions.service.ts), each its own store; and the books' and the owner's
+ * home (server/features/reports/reports.service.ts, server/features/dashboard/dashboard.service.ts) under
+ * `booksVersion` below, whose keys name the month or minute of the clock they were worked out for.
  *
  * An entry is good for one studio, one `schedule_version` (moved by database triggers whenever a row such
  * a read depends on changes: migrations/20270121120000-schedule-version.ts, 20270203120000-board-version.ts,
@@ -28,6 +30,22 @@ export const scheduleVersion = (db: Db, studioId: number): Promise<number | unde
     .where({ id: studioId })
     .first('schedule_version')
     .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined));
+
+/**
+ * The version of what the books and the owner's home read (server/features/reports/,
+ * server/features/dashboard/): `schedule_version` + `books_version` (migrations/20270205120000-books-version.ts
+ * moves the second on the money tables and the rest those answers read). Both only grow and are read from
+ * one row at once, so two reads give the same sum only when neither moved between them. With the studio's
+ * zone, for keys that depend on the clock in it (the zone is in the same row; changing it moves the
+ * schedule version). Undefined when there is no such studio.
+ */
+export const booksVersion = (db: Db, studioId: number): Promise<{ version: number; timeZone: string } | undefined> =>
+  db('studios')
+    .where({ id: studioId })
+    .first('schedule_version', 'books_version', 'timezone')
+    .then((r: { schedule_version: number | string; books_version: number | string; timezone: string } | undefined) =>
+      r ? { version: Number(r.schedule_version) + Number(r.books_version), timeZone: r.timezone } : undefined,
+    );
 
 type Entry<V> = { studioId: number; version: number; weight: number; value: Promise<V> };
 
@@ -112,12 +130,19 @@ export function versionCache<V>(opts: { maxWeight: number; weigh: (v: V) => numb
  * reads the newer version and misses. Whoever reads a version after a write's commit therefore never gets
  * data from before that write, on any instance.
  */
-export function keptReads<V>(opts: { version: (studioId: number) => Promise<number | undefined>; maxWeight: number; weigh: (v: V) => number }) {
+export function keptReads<V, At extends number | { version: number } = number>(opts: {
+  version: (studioId: number) => Promise<At | undefined>;
+  maxWeight: number;
+  weigh: (v: V) => number;
+}) {
   const cache = opts.maxWeight > 0 ? versionCache<V>(opts) : null;
-  return async (studioId: number, key: string, read: () => Promise<V>): Promise<V> => {
+  /** `key` may be worked out from what the version read gave beside the version (e.g. a month in the studio's zone). */
+  return async (studioId: number, key: string | ((at: At) => string), read: () => Promise<V>): Promise<V> => {
     if (!cache) return read();
-    const version = await opts.version(studioId);
-    if (version === undefined) return read();
-    return cache.get(studioId, version, key) ?? cache.set(studioId, version, key, read());
+    const at = await opts.version(studioId);
+    if (at === undefined) return read();
+    const version = typeof at === 'number' ? at : at.version;
+    const k = typeof key === 'string' ? key : key(at);
+    return cache.get(studioId, version, k) ?? cache.set(studioId, version, k, read());
   };
 }

@@ -1,9 +1,13 @@
 import type { CommissionStatus } from '../../../shared/commission-lifecycle';
 import type { Db } from '../../lib/db';
+import { booksVersion } from '../../lib/version-cache';
 
 /** Small read-only queries for the home pages; every query takes the studio id first. */
 export function dashboardRepository(db: Db) {
   return {
+    /** The version the owner's home is kept under (schedule_version + books_version). */
+    version: (studioId: number) => booksVersion(db, studioId),
+
     byStatus: (studioId: number) =>
       db('commissions').where({ studio_id: studioId }).groupBy('status').select('status').count({ n: '*' }) as Promise<{ status: CommissionStatus; n: number | string }[]>,
 

@@ -9,13 +9,17 @@ import type {
   PlannedStage,
   UtilisationWeek,
 } from '../../../shared/schemas/dashboard';
+import type { Clock } from '../../lib/clock';
 import { errors } from '../../lib/errors';
+import { keptReads } from '../../lib/version-cache';
 import type { Actor } from '../capacity/capacity.service';
 import type { ReportsService } from '../reports/reports.service';
+import { deepFreeze } from '../schedule/forecast-cache';
 import { timelineWeeks, type ScheduleService, type StudioForecast } from '../schedule/schedule.service';
 import type { DashboardRepository } from './dashboard.repository';
 
 const HOUR_MS = 3_600_000;
+const MINUTE_MS = 60_000;
 const round2 = (x: number) => Math.round(x * 100) / 100;
 
 /**
@@ -46,8 +50,30 @@ function capacityHours(sf: StudioForecast, painterId: number, from: string, to: 
   }
 }
 
-export function dashboardService(deps: { repo: DashboardRepository; schedule: ScheduleService; reports: ReportsService }) {
-  const { repo, schedule, reports } = deps;
+/** Rows an owner's home holds, for the cache's bound: its lists' entries and one for the rest. */
+const weigh = (d: OwnerDashboard) =>
+  1 +
+  d.byStatus.length +
+  d.utilisation.length +
+  d.overdueStages.items.length +
+  d.invoices.items.length +
+  d.revenue.length +
+  d.atRisk.length +
+  (d.myBench ? d.myBench.todayStages.length + d.myBench.weekStages.length : 0);
+
+/**
+ * The home page of each role. The owner's is kept in memory (`cacheRows`: rows of its lists held across
+ * studios and owners, default 20,000; 0: no cache) per studio, owner and minute under the books version
+ * (server/lib/version-cache.ts `booksVersion`: schedule_version + books_version, moved by database
+ * triggers with every write to a row it reads: migrations/20270205120000-books-version.ts lists them).
+ * Everything in it that depends on the clock follows from the minute: the forecast is worked out as of the
+ * start of the minute (schedule.service.ts), and "today" and "this month" are that minute's in the
+ * studio's zone. While neither moves, a request reads only the version. The painter's and the client's
+ * homes are read fresh (from the kept forecast).
+ */
+export function dashboardService(deps: { repo: DashboardRepository; schedule: ScheduleService; reports: ReportsService; clock: Clock; cacheRows?: number }) {
+  const { repo, schedule, reports, clock } = deps;
+  const keptOwner = keptReads<OwnerDashboard, { version: number }>({ version: repo.version, maxWeight: deps.cacheRows ?? 20_000, weigh });
 
   function blocksOf(sf: StudioForecast): WorkBlock[] {
     return sf.forecast.commissions.flatMap((c) => c.figures.flatMap((f) => f.blocks));
@@ -216,8 +242,11 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
 
   return {
     async get(actor: Actor): Promise<Dashboard> {
+      if (actor.role === 'owner') {
+        const minute = Math.floor(clock.now().getTime() / MINUTE_MS);
+        return keptOwner(actor.studioId, `owner|${actor.userId}|${minute}`, async () => deepFreeze(await owner(actor, await schedule.run(actor.studioId))));
+      }
       const sf = await schedule.run(actor.studioId);
-      if (actor.role === 'owner') return owner(actor, sf);
       if (actor.role === 'painter') return { role: 'painter', ...(await bench(actor.studioId, actor.userId, sf)) };
       if (actor.role === 'client') return client(actor, sf);
       throw errors.forbidden();

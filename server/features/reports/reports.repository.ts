@@ -1,5 +1,6 @@
 import type { Knex } from 'knex';
 import type { Db } from '../../lib/db';
+import { booksVersion } from '../../lib/version-cache';
 
 const n = (v: unknown) => Number(v ?? 0);
 
@@ -33,6 +34,9 @@ export type MoneyMove = {
 /** Read-only sums for the books; every query takes the studio id first. */
 export function reportsRepository(db: Db) {
   return {
+    /** The version the books are kept under (schedule_version + books_version) and the studio's zone. */
+    version: (studioId: number) => booksVersion(db, studioId),
+
     studio: (studioId: number) => db('studios').where({ id: studioId }).first('timezone', 'currency') as Promise<{ timezone: string; currency: string } | undefined>,
 
     /**
