@@ -137,21 +137,25 @@ export async function createApp(config: Config) {
   const db = openDb(config);
   await migrate(db);
 
-  const capture = config.smtpUrl ? null : await startMailCapture({ db, clock: config.clock, port: config.mailCapturePort, log });
+  // A worker of several (config.worker) uses the primary's capture inbox and payment fake instead of its own.
+  const link = config.worker;
+  const capture = config.smtpUrl || link ? null : await startMailCapture({ db, clock: config.clock, port: config.mailCapturePort, log });
+  const capturePort = capture?.port ?? link?.mailCapturePort;
   const mailer = createMailer({
     db,
     clock: config.clock,
-    smtp: config.smtpUrl ?? { host: '127.0.0.1', port: capture!.port },
+    smtp: config.smtpUrl ?? { host: '127.0.0.1', port: capturePort! },
     from: config.mailFrom,
     log,
   });
 
   // STRIPE_WEBHOOK_SECRET without a key: the fake signs with it, so events signed before a restart still verify after it.
-  const paymentsFake = config.stripeSecretKey ? null : await startPaymentsFake({ port: config.paymentsFakePort, clock: config.clock, log, webhookSecret: config.stripeWebhookSecret });
+  const paymentsFake = config.stripeSecretKey || link?.paymentsFake ? null : await startPaymentsFake({ port: config.paymentsFakePort, clock: config.clock, log, webhookSecret: config.stripeWebhookSecret });
+  const fake = paymentsFake ?? link?.paymentsFake;
   const payments = createPayments({
-    secretKey: config.stripeSecretKey ?? paymentsFake!.secretKey,
-    webhookSecret: config.stripeWebhookSecret ?? paymentsFake!.webhookSecret,
-    fake: paymentsFake ? { host: paymentsFake.host, port: paymentsFake.port } : undefined,
+    secretKey: config.stripeSecretKey ?? fake!.secretKey,
+    webhookSecret: config.stripeWebhookSecret ?? fake!.webhookSecret,
+    fake: fake ? { host: fake.host, port: fake.port } : undefined,
     clock: config.clock,
   });
 
@@ -193,7 +197,8 @@ export async function createApp(config: Config) {
   const notices = noticesService({ repo: noticesRepository(db), mailer, publicUrl: config.publicUrl });
   const photos = photosService({ db, repo: photosRepository(db), storage, limiter: createLimiter(2), notices, clock: config.clock });
   // Before anything is uploaded: the temp files (swept as the store opened) and files without a row that a crash left.
-  const leftovers = await photos.sweepLeftovers();
+  // Not in a worker of several: another worker's upload may be between its file and its row (the primary sweeps).
+  const leftovers = link ? 0 : await photos.sweepLeftovers();
   if (storage.sweptTempFiles || leftovers) log.warn(`removed ${storage.sweptTempFiles} unfinished and ${leftovers} unreferenced photo files left by an interrupted run`);
   const comments = commentsService({ db, repo: commentsRepository(db), notices, clock: config.clock });
   const approvals = approvalsService({
@@ -263,7 +268,7 @@ export async function createApp(config: Config) {
   // A client's data: the export (ZIP with photos) and the erase that keeps only what invoices need, anonymised.
   const privacy = privacyService({ db, repo: privacyRepository(db), storage, clock: config.clock, log });
 
-  if (config.demo && !(await db('studios').first('id'))) {
+  if (config.demo && !link && !(await db('studios').first('id'))) {
     await seedDemo(db, { clock: config.clock, hash: auth.hash, studios, photoStorage: storage });
     log.info('demo scenario loaded');
   }
@@ -342,7 +347,7 @@ export async function createApp(config: Config) {
   const apiRouter = express.Router();
   const r = routeTable(apiRouter);
   const allow = allowFactory(db);
-  const meta = { demo: config.demo, devMail: Boolean(capture), ...(config.demo ? { demoPassword: DEMO_PASSWORD } : {}) };
+  const meta = { demo: config.demo, devMail: capturePort !== undefined, ...(config.demo ? { demoPassword: DEMO_PASSWORD } : {}) };
   metaRoutes(r, { meta });
   authRoutes(r, { auth, invitations, passport: passport as never, sessionCookie });
   studiosRoutes(r, { allow, studios, invitations });
@@ -384,7 +389,7 @@ export async function createApp(config: Config) {
   app.use('/api/webhooks/payments', express.raw({ type: () => true, limit: '1mb' }));
   app.use('/api', express.json({ limit: '1mb' }), sessionMiddleware, passport.initialize(), passport.session(), csrf, apiRouter);
   app.use('/api', (_req, _res, next) => next(errors.notFound('That API route')));
-  if (capture) app.use('/dev/mail', devMailRouter(db));
+  if (capturePort !== undefined) app.use('/dev/mail', devMailRouter(db));
 
   if (config.serveClient && fs.existsSync(path.join(distDir, 'index.html'))) {
     app.use(express.static(distDir, { index: false, maxAge: '1h' }));

@@ -1,3 +1,4 @@
+import os from 'node:os';
 import path from 'node:path';
 import type { DestinationStream } from 'pino';
 import { z } from 'zod';
@@ -26,7 +27,22 @@ const envSchema = z.object({
   STRIPE_WEBHOOK_SECRET: z.string().optional(),
   PAYMENTS_FAKE_PORT: z.coerce.number().int().min(0).max(65535).default(0),
   LOG_LEVEL: z.enum(['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent']).default('info'),
+  WORKERS: z
+    .union([z.literal('auto'), z.coerce.number().int('WORKERS must be a whole number or "auto"').min(1).max(64)])
+    .default(1),
 });
+
+/**
+ * What a worker process (WORKERS > 1) gets from the primary, which alone runs the migrations, the demo seed,
+ * the background jobs and the start-up sweep of photo leftovers, and (when SMTP_URL or the payment keys are
+ * unset) the local mail capture and payment fake that every worker then talks to.
+ */
+export type WorkerLink = {
+  /** The primary's local mail capture (SMTP on 127.0.0.1), when it runs one: the worker shows /dev/mail too. */
+  mailCapturePort?: number;
+  /** The primary's local payment fake, when it runs one. */
+  paymentsFake?: { host: string; port: number; secretKey: string; webhookSecret: string };
+};
 
 export type Config = {
   port: number;
@@ -62,6 +78,10 @@ export type Config = {
   boardCacheRows?: number;
   /** Rows (commissions) the in-memory commission list cache may hold across studios and queries (default 20,000); 0 turns it off. */
   commissionListCacheRows?: number;
+  /** Processes serving HTTP on the port (WORKERS; "auto": one per core). 1: this process serves it alone. */
+  workers: number;
+  /** Set in a worker process of several (server/lib/workers.ts): what the primary runs for it. */
+  worker?: WorkerLink;
 };
 
 export const DEMO_PASSWORD = 'paint-the-bench';
@@ -94,6 +114,7 @@ export function loadConfig(env: NodeJS.ProcessEnv = process.env, overrides: Part
     paymentsFakePort: e.PAYMENTS_FAKE_PORT,
     bcryptRounds: e.BCRYPT_ROUNDS,
     logLevel: e.LOG_LEVEL,
+    workers: e.WORKERS === 'auto' ? os.availableParallelism() : e.WORKERS,
     clock: systemClock,
     serveClient: true,
     runJobs: true,

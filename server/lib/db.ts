@@ -52,6 +52,11 @@ function cachePreparedStatements(conn: { prepare: (sql: string) => unknown }, si
   const prepare = conn.prepare.bind(conn);
   const cache = new Map<string, unknown>();
   conn.prepare = (sql: string) => {
+    // Knex begins every transaction with a plain BEGIN, which takes the write lock only at the first write; with
+    // several processes on one file (WORKERS > 1) a transaction that read first then fails at once with
+    // SQLITE_BUSY if another wrote meanwhile. BEGIN IMMEDIATE takes the lock at the start and waits its turn
+    // (busy_timeout), as SQLite advises for transactions that write. One process, one connection: no change.
+    if (sql === 'BEGIN;') sql = 'BEGIN IMMEDIATE;';
     let statement = cache.get(sql);
     if (statement) cache.delete(sql);
     else statement = prepare(sql);

@@ -4,9 +4,7 @@
 // once. The streams start one after another and the kill comes after the k-th answer of the last one, never after
 // a sleep, so the timing holds on a slow machine. A copy of the killed server's database files is opened too,
 // to show SQLite's WAL recovery alone gives a sound database with every answered write in it.
-import { spawn, type ChildProcess } from 'node:child_process';
 import fs from 'node:fs';
-import net from 'node:net';
 import os from 'node:os';
 import path from 'node:path';
 import Database from 'better-sqlite3';
@@ -14,8 +12,7 @@ import sharp from 'sharp';
 import Stripe from 'stripe';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { checkoutCompletedEvent } from '../support/payment-events';
-
-const root = path.resolve(import.meta.dirname, '../..');
+import { Http, ServerRun } from '../support/server-process';
 
 /**
  * A real JPEG in two colour fields, made as tests/support/fixtures.ts makes its images (not imported from there:
@@ -27,123 +24,6 @@ async function twoToneJpeg(width: number, height: number) {
 }
 const WEBHOOK_SECRET = 'whsec_crash_test_0123456789abcdef';
 const PASSWORD = 'correct horse battery';
-
-async function freePort() {
-  const srv = net.createServer();
-  await new Promise<void>((r) => srv.listen(0, '127.0.0.1', () => r()));
-  const port = (srv.address() as net.AddressInfo).port;
-  await new Promise<void>((r) => srv.close(() => r()));
-  return port;
-}
-
-/** One run of the server process on the shared DATA_DIR; a new port each run, so no kept-alive socket of a dead run is reused. */
-class ServerRun {
-  child!: ChildProcess;
-  base = '';
-  output = '';
-  private exited!: Promise<void>;
-
-  constructor(private dataDir: string) {}
-
-  async start() {
-    const port = await freePort();
-    this.base = `http://127.0.0.1:${port}`;
-    const env: NodeJS.ProcessEnv = {
-      ...process.env,
-      PORT: String(port),
-      HOST: '127.0.0.1',
-      DATA_DIR: this.dataDir,
-      PUBLIC_URL: this.base,
-      DEMO: 'false',
-      BCRYPT_ROUNDS: '4',
-      LOG_LEVEL: 'warn',
-      SMTP_URL: '',
-      SESSION_SECRET: 'crash-test-session-secret-0123456789',
-      // no key: the local payment fake runs, and signs with this secret, which survives the restarts
-      STRIPE_SECRET_KEY: '',
-      STRIPE_WEBHOOK_SECRET: WEBHOOK_SECRET,
-    };
-    // WAL recovery is SQLite's: this test never runs on the PostgreSQL of an API-suite run.
-    delete env.DATABASE_URL;
-    this.child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], { cwd: root, detached: true, stdio: ['ignore', 'pipe', 'pipe'], env });
-    this.child.stdout!.on('data', (d) => (this.output += d));
-    this.child.stderr!.on('data', (d) => (this.output += d));
-    this.exited = new Promise((r) => this.child.once('exit', () => r()));
-    const deadline = Date.now() + 45_000;
-    for (;;) {
-      if (this.child.exitCode !== null) throw new Error(`server exited early:\n${this.output}`);
-      try {
-        if ((await fetch(`${this.base}/api/health`)).ok) return;
-      } catch {
-        /* not up yet */
-      }
-      if (Date.now() > deadline) throw new Error(`server did not start in time:\n${this.output}`);
-      await new Promise((r) => setTimeout(r, 100));
-    }
-  }
-
-  /** SIGKILL to the whole process group, at once: no handler, no flush, no close. */
-  kill() {
-    try {
-      process.kill(-this.child.pid!, 'SIGKILL');
-    } catch {
-      /* gone already */
-    }
-  }
-
-  async killed() {
-    this.kill();
-    await this.exited;
-  }
-
-  async stop() {
-    if (this.child.exitCode !== null || this.child.signalCode !== null) return;
-    process.kill(this.child.pid!, 'SIGTERM');
-    const timer = setTimeout(() => this.kill(), 10_000);
-    await this.exited;
-    clearTimeout(timer);
-  }
-}
-
-/** A browser-like caller over real HTTP: one session cookie, the CSRF token on unsafe methods. */
-class Http {
-  cookie = '';
-  token = '';
-  constructor(public server: ServerRun) {}
-
-  async send(method: string, url: string, body?: unknown, headers: Record<string, string> = {}) {
-    const isForm = body instanceof FormData;
-    const res = await fetch(`${this.server.base}${url}`, {
-      method,
-      headers: {
-        ...(this.cookie ? { cookie: this.cookie } : {}),
-        ...(method !== 'GET' && this.token ? { 'x-csrf-token': this.token } : {}),
-        ...(body !== undefined && !isForm ? { 'content-type': 'application/json' } : {}),
-        ...headers,
-      },
-      body: body === undefined ? undefined : isForm ? body : JSON.stringify(body),
-    });
-    const sid = res.headers.getSetCookie().find((c) => c.startsWith('sablework.sid='));
-    if (sid) this.cookie = sid.split(';')[0];
-    return res;
-  }
-
-  async json(method: string, url: string, body?: unknown) {
-    const res = await this.send(method, url, body);
-    const text = await res.text();
-    return { status: res.status, body: text ? JSON.parse(text) : null };
-  }
-
-  async csrf() {
-    this.token = (await this.json('GET', '/api/auth/csrf')).body.token;
-  }
-
-  async ok(method: string, url: string, body?: unknown, status = 200) {
-    const r = await this.json(method, url, body);
-    if (r.status !== status) throw new Error(`${method} ${url}: ${r.status} ${JSON.stringify(r.body)}`);
-    return r.body;
-  }
-}
 
 type Answer = { status: number; body: unknown };
 
@@ -267,7 +147,7 @@ beforeAll(async () => {
   const t0 = Date.now();
   const laps: string[] = [];
   const lap = (what: string) => laps.push(`${what} ${((Date.now() - t0) / 1000).toFixed(1)} s`);
-  server = new ServerRun(dataDir);
+  server = new ServerRun(dataDir, { STRIPE_WEBHOOK_SECRET: WEBHOOK_SECRET });
   await server.start();
   lap('started');
   const signup = new Http(server);
@@ -352,7 +232,7 @@ beforeAll(async () => {
       `WAL ${atKill.walBytes} bytes; ${atKill.leftBehind.length} temporary or unreferenced photo files on disk`,
   );
 
-  server = new ServerRun(dataDir);
+  server = new ServerRun(dataDir, { STRIPE_WEBHOOK_SECRET: WEBHOOK_SECRET });
   await server.start();
   owner.server = server;
   lap('restarted');
