@@ -52,9 +52,10 @@ export function runPrimary(sw: SableworkApp, config: Config, onListening: (port:
 
   const fork = () => cluster.fork(env);
 
+  // Said once, when every first worker listens (a replacement later says nothing).
   cluster.on('listening', (worker, address) => {
     listened.set(worker, Date.now());
-    if (!announced) {
+    if (!announced && listened.size === config.workers) {
       announced = true;
       onListening(address.port);
     }
