@@ -56,7 +56,8 @@ export function authRoutes(r: RouteTable, deps: { auth: AuthService; invitations
     // a __Host- cookie is only replaced by one with the same attributes
     res.clearCookie(name, { path: '/', httpOnly: true, sameSite: 'lax', secure: name.startsWith('__Host-') });
   }));
-  r.get('/auth/me', signedIn(), json((req) => auth.me(user(req).id)));
+  // the session's read of the person (passport's deserializeUser, this request) is fresh: no second read
+  r.get('/auth/me', signedIn(), json((req) => auth.me(user(req).id, user(req))));
   r.patch('/auth/me', signedIn(), validate({ body: updateMeInput }), json((req) => auth.updateMe(user(req).id, req.body)));
   // A new password from a signed-in session: the other sessions end, this one starts afresh (a new id and epoch).
   r.post('/auth/password', signedIn(), validate({ body: changePasswordInput }), json(async (req) => {

@@ -4,6 +4,7 @@ import type { ChangePasswordInput, LoginInput, ResetConfirmInput, SignupInput, U
 import { addMs, HOUR, iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
+import type { AuthUser } from '../../lib/policy';
 import type { Mailer } from '../../lib/mail/mailer';
 import { templates } from '../../lib/mail/templates';
 import { hashToken, newToken } from '../../lib/tokens';
@@ -75,10 +76,11 @@ export function authService(deps: {
       trx,
     );
 
-  async function me(userId: number) {
-    const u = await repo.findUserById(userId);
+  /** The person and their memberships; `signedIn`: the person as this request's session read them just now. */
+  async function me(userId: number, signedIn?: AuthUser) {
+    const u = signedIn ?? (await repo.findUserById(userId).then((row) => row && toUser(row)));
     if (!u) throw errors.unauthenticated();
-    return { user: toUser(u), memberships: await repo.memberships(userId) };
+    return { user: u, memberships: await repo.memberships(userId) };
   }
 
   return {
