@@ -254,9 +254,8 @@ export async function createApp(config: Config) {
   const money = moneyService({ repo: moneyRepository(db), priceTables, clock: config.clock });
   // The books (actuals against estimates, earnings net of costs) and each role's home page.
   // The books and the owner's home are kept in memory under the books version (booksCacheRows; 0 off).
-  const booksCacheRows = (config as Config & { booksCacheRows?: number }).booksCacheRows;
-  const reports = reportsService({ repo: reportsRepository(db), priceTables, clock: config.clock, cacheRows: booksCacheRows });
-  const dashboard = dashboardService({ repo: dashboardRepository(db), schedule, reports, clock: config.clock, cacheRows: booksCacheRows });
+  const reports = reportsService({ repo: reportsRepository(db), priceTables, clock: config.clock, cacheRows: config.booksCacheRows });
+  const dashboard = dashboardService({ repo: dashboardRepository(db), schedule, reports, clock: config.clock, cacheRows: config.booksCacheRows });
 
   // Both ends of a commission: the public page and its enquiries (one photo decoded at a time for visitors),
   // the models received, packing and shipping. The move to shipped waits for the balance, however it is asked for.

@@ -78,6 +78,8 @@ export type Config = {
   boardCacheRows?: number;
   /** Rows (commissions) the in-memory commission list cache may hold across studios and queries (default 20,000); 0 turns it off. */
   commissionListCacheRows?: number;
+  /** Rows the in-memory books cache (earnings, actuals, the owner's home) may hold per store (default 20,000); 0 turns it off. */
+  booksCacheRows?: number;
   /** Processes serving HTTP on the port (WORKERS; "auto": one per core). 1: this process serves it alone. */
   workers: number;
   /** Set in a worker process of several (server/lib/workers.ts): what the primary runs for it. */

@@ -25,8 +25,8 @@ const ids: Record<string, number> = {};
 let stages: { id: number; key: string }[] = [];
 let figureIds: number[] = [];
 
-/** Off on the fresh instance: the lead adds `booksCacheRows` to Config (server/config.ts); until then it passes through. */
-const booksOff = { booksCacheRows: 0, forecastCacheStages: 0 } as Partial<Config>;
+/** Off on the fresh instance. */
+const booksOff: Partial<Config> = { booksCacheRows: 0, forecastCacheStages: 0 };
 
 function at(time: string) {
   cached.clock.set(time);

@@ -21,8 +21,12 @@ function totalsSetAside(db: Database.Database) {
   // row once per row inserted; a freshly generated studio needs no version but its first. The figure
   // totals' triggers (migrations/20270202120000-figure-totals.ts) would recompute a figure from its stages
   // once per stage inserted; their backfill, the same SQL the triggers run, sets every figure at the end.
+  // The books version's (migrations/20270205120000-books-version.ts) would bump it per invoice, payment and
+  // accepted quote.
   const triggers = db
-    .prepare("select name, sql from sqlite_master where type = 'trigger' and (name glob 'commission_totals_*' or name glob 'schedule_version_*' or name glob 'figure_totals_*')")
+    .prepare(
+      "select name, sql from sqlite_master where type = 'trigger' and (name glob 'commission_totals_*' or name glob 'schedule_version_*' or name glob 'figure_totals_*' or name glob 'books_version_*')",
+    )
     .all() as { name: string; sql: string }[];
   for (const t of triggers) db.exec(`drop trigger ${t.name}`);
   return () => {
