@@ -55,6 +55,12 @@ export type CheckoutRow = {
   created_at: string;
 };
 
+/** What one line of the CSV export reads: the invoice's own columns, its names, and the number and issue time of the invoice it credits. */
+export type ExportRow = Pick<
+  InvoiceRow,
+  'id' | 'number' | 'kind' | 'status' | 'issued_at' | 'due_date' | 'client_name' | 'commission_title' | 'credit_for' | 'currency' | 'tax_inclusive' | 'tax_label' | 'tax_id' | 'subtotal' | 'tax' | 'total' | 'paid' | 'refunded' | 'credited'
+> & { lines_json: string; credit_for_number: string | null; credit_for_issued_at: string | null };
+
 export type IssueRow = { id: string; invoice_id: number | null; invoice_number: string | null; session_id: string | null; reason: string | null; received_at: string };
 
 const n = (v: unknown) => Number(v ?? 0);
@@ -210,12 +216,55 @@ export function invoicesRepository(db: Db) {
       ]);
       return { rows: rows.map(toRow), total: n(count?.n) };
     },
-    /** Issued invoices (credit notes included) whose issue time falls in [from, to), for the accountant's export. */
-    async issuedBetween(studioId: number, from: string | null, to: string | null) {
-      const qb = base(db, studioId).whereNotNull('i.issued_at').select(invoiceColumns).orderBy('i.issued_at').orderBy('i.id');
+    /**
+     * One page of issued invoices for the CSV export, in (issued_at, id) order after `after` (the last row of
+     * the page before), issued in [from, to) when given; each with the number and issue time of the invoice it credits.
+     */
+    async exportPage(studioId: number, from: string | null, to: string | null, after: { issuedAt: string; id: number } | null, limit: number): Promise<ExportRow[]> {
+      const qb = base(db, studioId)
+        .leftJoin('invoices as cf', (j) => j.on('cf.id', 'i.credit_for').andOn('cf.studio_id', 'i.studio_id'))
+        .whereNotNull('i.issued_at')
+        .select(
+          'i.id',
+          'i.number',
+          'i.kind',
+          'i.status',
+          'i.issued_at',
+          'i.due_date',
+          'cl.name as client_name',
+          'c.title as commission_title',
+          'i.credit_for',
+          'cf.number as credit_for_number',
+          'cf.issued_at as credit_for_issued_at',
+          'i.currency',
+          'i.tax_inclusive',
+          'i.tax_label',
+          'i.tax_id',
+          'i.subtotal',
+          'i.tax',
+          'i.total',
+          'i.paid',
+          'i.refunded',
+          'i.credited',
+          'i.lines_json',
+        )
+        .orderBy('i.issued_at')
+        .orderBy('i.id')
+        .limit(limit);
       if (from) qb.where('i.issued_at', '>=', from);
       if (to) qb.where('i.issued_at', '<', to);
-      return (await qb).map(toRow);
+      if (after) qb.where((w) => w.where('i.issued_at', '>', after.issuedAt).orWhere((o) => o.where('i.issued_at', after.issuedAt).where('i.id', '>', after.id)));
+      const rows = (await qb) as Record<string, unknown>[];
+      return rows.map((r) => ({
+        ...(r as ExportRow),
+        tax_inclusive: Boolean(r.tax_inclusive),
+        subtotal: n(r.subtotal),
+        tax: n(r.tax),
+        total: n(r.total),
+        paid: n(r.paid),
+        refunded: n(r.refunded),
+        credited: n(r.credited),
+      }));
     },
 
     async payments(studioId: number, invoiceIds: number[], trx: Db = db) {

@@ -1,14 +1,10 @@
-import type { Request } from 'express';
-import { stringify } from 'csv-stringify/sync';
+import type { Request, Response } from 'express';
 import { z } from 'zod';
-import { fromMinor } from '../../../shared/money';
 import { id } from '../../../shared/schemas/common';
 import {
   createInvoiceInput,
   invoiceExportQuery,
-  invoiceKindLabels,
   invoiceListQuery,
-  invoiceStatusLabels,
   manualPaymentInput,
   refundInput,
   type InvoiceExportQuery,
@@ -18,14 +14,34 @@ import { cancelCommissionInput } from '../../../shared/schemas/quotes';
 import { member, user, type Allow } from '../../lib/policy';
 import { json, params, query, type RouteTable } from '../../lib/routes';
 import { validate } from '../../lib/validate';
-import { csvCell } from '../../lib/csv';
 import { invoicePdf } from './invoice-pdf';
 import type { InvoicesService } from './invoices.service';
 
 const invoiceParams = z.object({ studioId: id, invoiceId: id });
 const commissionParams = z.object({ studioId: id, commissionId: id });
 const actor = (req: Request) => ({ ...member(req), userId: user(req).id });
-const guardRow = (row: Record<string, string | number | null | undefined>) => Object.fromEntries(Object.entries(row).map(([k, v]) => [k, csvCell(v)]));
+
+/** Writes the chunks as they come, waiting for the socket to drain between them; stops if the client went away. */
+async function writeChunks(res: Response, head: string[], rest: AsyncIterable<string>) {
+  const write = async (chunk: string) => {
+    if (res.destroyed || res.write(chunk)) return;
+    await new Promise<void>((resolve) => {
+      const done = () => {
+        res.off('drain', done);
+        res.off('close', done);
+        resolve();
+      };
+      res.on('drain', done);
+      res.on('close', done);
+    });
+  };
+  for (const chunk of head) await write(chunk);
+  for await (const chunk of rest) {
+    if (res.destroyed) return;
+    await write(chunk);
+  }
+  res.end();
+}
 
 export function invoicesRoutes(r: RouteTable, deps: { allow: Allow; invoices: InvoicesService }) {
   const { allow, invoices } = deps;
@@ -34,57 +50,12 @@ export function invoicesRoutes(r: RouteTable, deps: { allow: Allow; invoices: In
   // Before /invoices/:invoiceId, which would take "export.csv" for an id.
   r.get('/studios/:studioId/invoices/export.csv', allow('owner'), validate({ query: invoiceExportQuery }), async (req, res) => {
     const q = query<InvoiceExportQuery>(res);
-    const { rows } = await invoices.exportRows(member(req), q.from ?? null, q.to ?? null);
-    const money = (m: number, c: string) => fromMinor(m, c);
-    // Every cell through csvCell: client names, titles and tax words are typed by people, and a cell
-    // starting with = + - @ would run as a formula in a spreadsheet.
-    const csv = stringify(
-      rows.map((i) => guardRow({
-        number: i.number,
-        kind: invoiceKindLabels[i.kind],
-        status: invoiceStatusLabels[i.status],
-        issued: i.issuedAt?.slice(0, 10) ?? '',
-        due: i.dueDate ?? '',
-        client: i.client.name,
-        commission: i.commissionTitle,
-        credits: i.creditFor ? (rows.find((x) => x.id === i.creditFor)?.number ?? String(i.creditFor)) : '',
-        currency: i.currency,
-        net: money(i.taxInclusive ? i.total - i.tax : i.subtotal, i.currency),
-        taxLabel: i.taxLabel,
-        taxRates: [...new Set(i.lines.map((l) => l.taxBp / 100))].join(' / '),
-        tax: money(i.tax, i.currency),
-        total: money(i.total, i.currency),
-        paid: money(i.paid, i.currency),
-        refunded: money(i.refunded, i.currency),
-        balanceDue: money(i.balanceDue, i.currency),
-        taxId: i.taxId,
-      })),
-      {
-        header: true,
-        columns: [
-          { key: 'number', header: 'Number' },
-          { key: 'kind', header: 'Kind' },
-          { key: 'status', header: 'Status' },
-          { key: 'issued', header: 'Issued' },
-          { key: 'due', header: 'Due' },
-          { key: 'client', header: 'Client' },
-          { key: 'commission', header: 'Commission' },
-          { key: 'credits', header: 'Credits invoice' },
-          { key: 'currency', header: 'Currency' },
-          { key: 'net', header: 'Net' },
-          { key: 'taxLabel', header: 'Tax' },
-          { key: 'taxRates', header: 'Tax rate %' },
-          { key: 'tax', header: 'Tax amount' },
-          { key: 'total', header: 'Total' },
-          { key: 'paid', header: 'Paid' },
-          { key: 'refunded', header: 'Refunded' },
-          { key: 'balanceDue', header: 'Balance due' },
-          { key: 'taxId', header: 'Tax ID' },
-        ],
-      },
-    );
+    const chunks = await invoices.exportCsv(member(req), q.from ?? null, q.to ?? null);
     const name = `invoices${q.from ? `-from-${q.from}` : ''}${q.to ? `-to-${q.to}` : ''}.csv`;
-    res.type('text/csv; charset=utf-8').attachment(name).send(csv);
+    // The first page is read before anything is sent, so a failure there is still an error answer.
+    const next = await chunks.next();
+    res.type('text/csv; charset=utf-8').attachment(name);
+    await writeChunks(res, next.done ? [] : [next.value], chunks);
   });
   r.get('/studios/:studioId/invoices/:invoiceId', allow('owner', 'client'), validate({ params: invoiceParams }), json((req, res) => invoices.get(member(req), params(res).invoiceId)));
   r.get('/studios/:studioId/invoices/:invoiceId/pdf', allow('owner', 'client'), validate({ params: invoiceParams }), async (req, res) => {

@@ -25,6 +25,7 @@ import { AppError, errors } from '../../lib/errors';
 import type { Mailer } from '../../lib/mail/mailer';
 import { templates } from '../../lib/mail/templates';
 import type { Member } from '../../lib/policy';
+import { invoiceCsvChunks } from './invoices.csv';
 import type { CheckoutRow, InvoiceRow, InvoicesRepository, PaymentRow } from './invoices.repository';
 
 export type Actor = Member & { userId: number };
@@ -780,16 +781,10 @@ export function invoicesService(deps: InvoiceDeps) {
       return { invoice: inv, studio: s, client, creditForNumber: creditFor?.number ?? null };
     },
 
-    async exportRows(actor: Member, from: string | null, to: string | null) {
+    /** The CSV export's text in chunks, a page of invoices each (invoices.csv.ts); the studio is read first. */
+    async exportCsv(actor: Member, from: string | null, to: string | null) {
       const s = await studioOf(actor.studioId);
-      // Dates are the studio's calendar days; the stored times are UTC, so the day's bounds are widened by a day and filtered after.
-      const lo = from ? addDays(from, -1) : null;
-      const hi = to ? addDays(to, 2) : null;
-      const rows = (await repo.issuedBetween(actor.studioId, lo, hi)).filter((r) => {
-        const day = localDateOf(new Date(r.issued_at!).getTime(), s.timezone);
-        return (!from || day >= from) && (!to || day <= to);
-      });
-      return { rows: await views(actor.studioId, rows, false), timezone: s.timezone };
+      return invoiceCsvChunks(repo, { id: actor.studioId, timezone: s.timezone }, from, to);
     },
   };
 }
