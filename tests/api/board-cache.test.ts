@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { secondPainter, userId } from '../support/fixtures';
 import { idOf, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
+import { afterEachWrite } from '../support/kept-reads';
 
 // The bench board keeps what it read in memory per studio, schedule version and query
 // (server/features/board/board.service.ts). Two app instances share one database (one SQLite file, or one
@@ -83,15 +84,7 @@ async function boards(on: 'cached' | 'fresh') {
   return out;
 }
 
-/** Reads every board on the cached instance (so its cache holds them), writes, then expects the cached answers to be the fresh ones and new. */
-async function afterWrite(write: () => Promise<unknown>) {
-  const before = await boards('cached');
-  await write();
-  const after = await boards('cached');
-  expect(after).toEqual(await boards('fresh'));
-  expect(after).not.toEqual(before);
-  return { before, after };
-}
+const afterWrite = afterEachWrite(boards);
 
 const figuresOf = async (commissionId: number) => ((await cached.db('figures').where({ commission_id: commissionId }).orderBy('id').select('id')) as { id: number }[]).map((f) => f.id);
 const stagesOf = async (figureId: number) =>

@@ -3,6 +3,7 @@ import type { Config } from '../../server/config';
 import { defaultPriceTable } from '../../shared/schemas/price-table';
 import { PASSWORD, signInAs, startTestApp, withQueries, type Caller, type TestApp } from '../support/app';
 import { acceptedQuote, commission, invoicesOf, moneyStudios, type Side } from './money-flow';
+import { afterEachWrite } from '../support/kept-reads';
 
 // The books (earnings, actuals) and the owner's home are kept in memory under the books version
 // (server/features/reports/reports.service.ts, server/features/dashboard/dashboard.service.ts;
@@ -57,15 +58,7 @@ async function books(on: 'cached' | 'fresh') {
   return out;
 }
 
-/** Reads everything on the cached instance (so its cache holds it), writes, then expects the cached answers to be the fresh ones and new. */
-async function afterWrite(write: () => Promise<unknown>) {
-  const before = await books('cached');
-  await write();
-  const after = await books('cached');
-  expect(after).toEqual(await books('fresh'));
-  expect(after).not.toEqual(before);
-  return { before, after };
-}
+const afterWrite = afterEachWrite(books);
 
 const invoices = () => invoicesOf(callers.cached.owner, a.studioId, ids.first);
 

@@ -1,6 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { insertCommission, insertFigure, secondClient } from '../support/fixtures';
 import { PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
+import { afterEachWrite } from '../support/kept-reads';
 
 // The commission list keeps what it read in memory per studio, schedule version and query, the client's
 // scope included (server/features/commissions/commissions.service.ts). Two app instances share one
@@ -51,16 +52,10 @@ async function lists(on: 'cached' | 'fresh') {
  * Reads every list on the cached instance (so its cache holds them), moves the clock on a minute (so a
  * write's `updated_at` is new), writes, then expects the cached answers to be the fresh ones and new.
  */
-async function afterWrite(write: () => Promise<unknown>) {
-  const before = await lists('cached');
+const afterWrite = afterEachWrite(lists, () => {
   cached.clock.advance(60_000);
   fresh.clock.advance(60_000);
-  await write();
-  const after = await lists('cached');
-  expect(after).toEqual(await lists('fresh'));
-  expect(after).not.toEqual(before);
-  return { before, after };
-}
+});
 
 const figuresOf = async (commissionId: number) => ((await cached.db('figures').where({ commission_id: commissionId }).orderBy('id').select('id')) as { id: number }[]).map((f) => f.id);
 const stagesOf = async (figureId: number) => ((await cached.db('stages').where({ figure_id: figureId }).orderBy('position').select('id')) as { id: number }[]).map((s) => s.id);

@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { userId } from '../support/fixtures';
 import { Caller, idOf, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type TestApp } from '../support/app';
 import { secondPainter } from '../support/fixtures';
+import { afterEachWrite } from '../support/kept-reads';
 
 // The studio forecast is kept in memory per studio under the schedule version the database moves on
 // every write it depends on. Two app instances share one database (one SQLite file, or one PostgreSQL
@@ -81,18 +82,7 @@ async function everything(on: 'cached' | 'fresh') {
   };
 }
 
-/**
- * Reads everything on the cached instance (so its cache holds the studio), makes the write, then expects
- * the cached instance to answer what the fresh one answers, and not what it answered before.
- */
-async function afterWrite(write: () => Promise<unknown>) {
-  const before = await everything('cached');
-  await write();
-  const after = await everything('cached');
-  expect(after).toEqual(await everything('fresh'));
-  expect(after).not.toEqual(before);
-  return { before, after };
-}
+const afterWrite = afterEachWrite(everything);
 
 /** SQL of the queries `run` makes on the cached instance's database. */
 const queriesOf = async (run: () => Promise<unknown>) => (await withQueries(cached.db, run)).sql;

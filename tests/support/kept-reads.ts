@@ -1,0 +1,20 @@
+import { expect } from 'vitest';
+
+/**
+ * For the tests of a kept read (forecast, board, commission list, books): two app instances on one database,
+ * `cached` with the cache on and `fresh` with it off. The function returned reads everything on the cached
+ * instance (so its cache holds it), makes the write, then expects the cached instance to answer what the fresh
+ * one answers, and not what it answered before the write (so the write was one the answers read).
+ * `beforeWrite` runs between the first read and the write (e.g. to move both clocks on).
+ */
+export function afterEachWrite<T>(read: (on: 'cached' | 'fresh') => Promise<T>, beforeWrite: () => void = () => undefined) {
+  return async (write: () => Promise<unknown>) => {
+    const before = await read('cached');
+    beforeWrite();
+    await write();
+    const after = await read('cached');
+    expect(after).toEqual(await read('fresh'));
+    expect(after).not.toEqual(before);
+    return { before, after };
+  };
+}
