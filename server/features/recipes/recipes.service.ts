@@ -1,6 +1,6 @@
 import { isHex, ladder, mixPreview, psiToBar } from '../../../shared/color';
 import { sortHazards } from '../../../shared/hazards';
-import type { PaintRef } from '../../../shared/schemas/paints';
+import { stockState, type PaintRef } from '../../../shared/schemas/paints';
 import {
   formatParts,
   stepHazards,
@@ -16,7 +16,7 @@ import { iso, type Clock } from '../../lib/clock';
 import { errors } from '../../lib/errors';
 import { pageOf } from '../../lib/page';
 import type { PaintsService } from '../paints/paints.service';
-import type { RecipeRow, RecipesRepository, StepPaintRow, StepRow } from './recipes.repository';
+import type { RecipeListRow, RecipeRow, RecipesRepository, StepRow } from './recipes.repository';
 
 const round2 = (n: number) => Math.round(n * 100) / 100;
 
@@ -61,24 +61,21 @@ export function recipesService(deps: { repo: RecipesRepository; paints: Pick<Pai
   const { repo, paints, clock } = deps;
   const now = () => iso(clock.now());
 
-  /** Recipes with their steps and paints, loaded in three queries whatever the number. */
-  async function hydrate(studioId: number, rows: RecipeRow[]): Promise<Recipe[]> {
-    const steps = await repo.steps(studioId, rows.map((r) => r.id));
-    const stepPaints: StepPaintRow[] = await repo.stepPaints(studioId, steps.map((s) => s.id));
-    const refs = await paints.refsByIds(studioId, [...new Set(stepPaints.map((p) => p.paint_id))]);
-    const paintsByStep = new Map<number, StepPaint[]>();
-    for (const p of stepPaints) {
-      const paint = refs.get(p.paint_id);
-      if (paint) paintsByStep.set(p.step_id, [...(paintsByStep.get(p.step_id) ?? []), { parts: p.parts, paint }]);
-    }
+  /** Recipes from their rows and their steps in order, with each step's paints (by step id). */
+  function assemble(rows: (RecipeListRow & Partial<Pick<RecipeRow, 'description'>>)[], steps: StepRow[], paintsByStep: ReadonlyMap<number, StepPaint[]>): Recipe[] {
     const stepsByRecipe = new Map<number, RecipeStep[]>();
-    for (const s of steps) stepsByRecipe.set(s.recipe_id, [...(stepsByRecipe.get(s.recipe_id) ?? []), stepView(s, paintsByStep.get(s.id) ?? [])]);
+    for (const s of steps) {
+      const view = stepView(s, paintsByStep.get(s.id) ?? []);
+      const list = stepsByRecipe.get(s.recipe_id);
+      if (list) list.push(view);
+      else stepsByRecipe.set(s.recipe_id, [view]);
+    }
     return rows.map((r) => {
       const views = stepsByRecipe.get(r.id) ?? [];
       return {
         id: r.id,
         name: r.name,
-        description: r.description,
+        description: r.description ?? null,
         colour: r.colour,
         swatch: r.colour ?? swatchesOf(views)[0]?.hex ?? null,
         sourcePhotoId: r.source_photo_id,
@@ -89,6 +86,61 @@ export function recipesService(deps: { repo: RecipesRepository; paints: Pick<Pai
         updatedAt: r.updated_at,
       };
     });
+  }
+
+  const pushTo = <K, V>(map: Map<K, V[]>, key: K, value: V) => {
+    const list = map.get(key);
+    if (list) list.push(value);
+    else map.set(key, [value]);
+  };
+
+  /**
+   * Recipes with their steps and paints, loaded in one query whatever the number: the steps joined with
+   * their paints, a paint that is not on this studio's rack left out (as refsByIds leaves it out).
+   */
+  async function hydrate(studioId: number, rows: RecipeRow[]): Promise<Recipe[]> {
+    const joined = await repo.stepsWithPaints(studioId, rows.map((r) => r.id));
+    const steps: StepRow[] = [];
+    const paintsByStep = new Map<number, StepPaint[]>();
+    for (const row of joined) {
+      if (steps[steps.length - 1]?.id !== row.id) steps.push(row);
+      if (row.p_id === null) continue;
+      // As toPaintRef has it (the same keys in the same order).
+      const paint: PaintRef = {
+        id: row.p_id,
+        name: row.p_name!,
+        maker: row.p_maker,
+        range: row.p_range_name,
+        type: row.p_type!,
+        hex: row.p_hex,
+        stock: row.p_stock!,
+        stockState: stockState(row.p_stock!, row.p_low_stock_threshold),
+      };
+      pushTo(paintsByStep, row.id, { parts: row.sp_parts!, paint });
+    }
+    return assemble(rows, steps, paintsByStep);
+  }
+
+  /**
+   * The summaries of a page of recipes, as summarise(hydrate(...)) gives them, read with only what a summary
+   * shows: a step's technique, airbrush, thinner and ladder, its paints' type, colour and parts. The step
+   * and paint fields a summary drops (position, PSI, diluent parts, tool, notes; a paint's name, maker, range
+   * and stock) are left empty in what is assembled, and nothing of them reaches the answer.
+   */
+  async function summariesOf(studioId: number, rows: RecipeListRow[]): Promise<RecipeSummary[]> {
+    const lean = await repo.summarySteps(studioId, rows.map((r) => r.id));
+    const steps: StepRow[] = [];
+    const paintsByStep = new Map<number, StepPaint[]>();
+    for (const row of lean) {
+      if (steps[steps.length - 1]?.id !== row.id) {
+        // Filled in on the row itself: a copy of a driver's row object (spread) costs more than the rest of this loop.
+        steps.push(Object.assign(row, { studio_id: studioId, position: 0, psi: null, dilution_diluent_parts: null, tool: null, notes: null }));
+      }
+      if (row.p_type === null) continue;
+      const paint: PaintRef = { id: 0, name: '', maker: null, range: null, type: row.p_type, hex: row.p_hex, stock: 0, stockState: 'out' };
+      pushTo(paintsByStep, row.id, { parts: row.sp_parts!, paint });
+    }
+    return assemble(rows, steps, paintsByStep).map(summarise);
   }
 
   const summarise = (r: Recipe): RecipeSummary => {
@@ -123,7 +175,7 @@ export function recipesService(deps: { repo: RecipesRepository; paints: Pick<Pai
     summarise,
     async list(studioId: number, q: RecipeListQuery) {
       const { rows, total } = await repo.list(studioId, q);
-      return pageOf((await hydrate(studioId, rows)).map(summarise), total, q);
+      return pageOf(await summariesOf(studioId, rows), total, q);
     },
     /** Summaries of the given recipes, by id (for schemes). */
     async summaries(studioId: number, ids: number[]) {
