@@ -271,6 +271,31 @@ describe('reading an unchanged studio', () => {
     expect(next).not.toEqual(first);
   });
 
+  it('the team’s timeline text kept per query: the same text as a fresh instance with queries in turn, for owner and painter, and a write moves it', async () => {
+    at('2026-03-09T11:40:10.000Z');
+    const text = async (on: 'cached' | 'fresh', who: Who, url: string) => (await ok(callers[on][who].get(url))).text!;
+    // Three queries in turn, twice (more than the two texts kept beside a run), and a client between them.
+    const urls = [`${base}/schedule`, `${base}/schedule?limit=1&offset=1`, `${base}/schedule?weeks=2&from=2026-03-16`];
+    const seen: string[] = [];
+    for (let round = 0; round < 2; round++) {
+      for (const url of urls) {
+        const owner = await text('cached', 'owner', url);
+        expect(owner).toBe(await text('fresh', 'owner', url));
+        expect(await text('cached', 'painter', url)).toBe(owner);
+        expect(await text('cached', 'client', url)).toBe(await text('fresh', 'client', url));
+        if (round === 0) seen.push(owner);
+        else expect(owner).toBe(seen[urls.indexOf(url)]);
+      }
+    }
+    expect(new Set(seen).size).toBe(3);
+    // A write on the other instance: the kept text is not answered again.
+    await ok(callers.fresh.owner.patch(`${base}/commissions/${ids.second}`, { dueDate: '2026-03-20' }));
+    const after = await text('cached', 'owner', urls[0]);
+    expect(after).not.toBe(seen[0]);
+    expect(after).toBe(await text('fresh', 'owner', urls[0]));
+    expect(after).toContain('"dueDate":"2026-03-20"');
+  });
+
   it('the next day gives the next day’s forecast', async () => {
     at('2026-03-09T18:00:00.000Z');
     const monday = await everything('cached');

@@ -100,16 +100,26 @@ const MINUTE_MS = 60_000;
 /** The forecast's "now": the start of the clock's minute, so one worked-out forecast answers for the whole minute. */
 const minuteOf = (d: Date) => new Date(Math.floor(d.getTime() / MINUTE_MS) * MINUTE_MS);
 
+/** Prefixes of each kept run worked out so far, by length: a run's first n places are the same object every time. */
+const prefixes = new WeakMap<Kept, Map<number, RunResult>>();
+
 /** The first `n` places of a kept run (the forecast of a place depends only on the places before it). */
 function prefix(kept: Kept, n: number): RunResult {
   const r = kept.result;
   if (n >= r.queue.length) return r;
-  return deepFreeze({
-    ...r,
-    queue: r.queue.slice(0, n),
-    input: { ...r.input, queue: r.input.queue.slice(0, n) },
-    forecast: { ...r.forecast, commissions: r.forecast.commissions.slice(0, n) },
-  });
+  let byLength = prefixes.get(kept);
+  if (!byLength) prefixes.set(kept, (byLength = new Map()));
+  let p = byLength.get(n);
+  if (!p) {
+    p = deepFreeze({
+      ...r,
+      queue: r.queue.slice(0, n),
+      input: { ...r.input, queue: r.input.queue.slice(0, n) },
+      forecast: { ...r.forecast, commissions: r.forecast.commissions.slice(0, n) },
+    });
+    byLength.set(n, p);
+  }
+  return p;
 }
 
 /**
@@ -202,8 +212,9 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
    * client, figures and place in the queue. The whole queue for the team is worked out once per run.
    */
   function describe(sf: StudioForecast, forClient: boolean, only?: number[]): ScheduledCommission[] {
-    if (!forClient && !only) return derived(sf, 'describe', () => describeAt(sf, false));
-    return describeAt(sf, forClient, only);
+    if (forClient) return describeAt(sf, true, only);
+    const all = derived(sf, 'describe', () => describeAt(sf, false));
+    return only ? only.map((i) => all[i]) : all;
   }
 
   function describeAt(sf: StudioForecast, forClient: boolean, only?: number[]): ScheduledCommission[] {
@@ -258,6 +269,11 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
    * from `offset` (nothing of anyone else's). The forecast runs up to the page's last commission only.
    */
   async function view(actor: Actor, q: ScheduleQuery): Promise<ScheduleView> {
+    return (await viewOf(actor, q)).answer();
+  }
+
+  /** The run a page of the timeline is read from, and the page's answer worked out from it. */
+  async function viewOf(actor: Actor, q: ScheduleQuery): Promise<{ sf: StudioForecast; answer: () => ScheduleView }> {
     const forClient = actor.role === 'client';
     const mine = (queue: QueueRow[]) => queue.flatMap((c, i) => (!forClient || c.client_id === actor.clientId ? [i] : []));
     let places: number[] = [];
@@ -270,18 +286,44 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
         return places.length ? places[places.length - 1] + 1 : 0;
       },
     });
-    const commissions = describe(sf, forClient, places);
-    return {
-      timeZone: sf.input.timeZone,
-      now: sf.input.now,
-      today: sf.today,
-      weeks: timelineWeeks(q.from ?? sf.today, q.weeks),
-      painters: forClient ? [] : sf.painters,
-      commissions: forClient ? commissions.map((c) => ({ ...c, queuePosition: null })) : commissions,
-      total,
-      limit: q.limit,
-      offset: q.offset,
+    const answer = (): ScheduleView => {
+      const commissions = describe(sf, forClient, places);
+      return {
+        timeZone: sf.input.timeZone,
+        now: sf.input.now,
+        today: sf.today,
+        weeks: timelineWeeks(q.from ?? sf.today, q.weeks),
+        painters: forClient ? [] : sf.painters,
+        commissions: forClient ? commissions.map((c) => ({ ...c, queuePosition: null })) : commissions,
+        total,
+        limit: q.limit,
+        offset: q.offset,
+      };
     };
+    return { sf, answer };
+  }
+
+  /** The last answers of the team's timeline as JSON, per run (a run of a version and minute is frozen). */
+  const teamJson = new WeakMap<StudioForecast, Map<string, string>>();
+  const TEAM_JSON_KEPT = 2;
+
+  /**
+   * The timeline's answer as JSON text. The team's answer of a run is the same for the same query, so its
+   * text is kept beside the run (the last two queries); a client's is written out each time.
+   */
+  async function viewJson(actor: Actor, q: ScheduleQuery): Promise<string> {
+    if (actor.role === 'client') return JSON.stringify(await view(actor, q));
+    const key = JSON.stringify([q.from ?? null, q.weeks, q.limit, q.offset]);
+    const { sf, answer } = await viewOf(actor, q);
+    let kept = teamJson.get(sf);
+    if (!kept) teamJson.set(sf, (kept = new Map()));
+    let text = kept.get(key);
+    if (text === undefined) {
+      text = JSON.stringify(answer());
+      if (kept.size >= TEAM_JSON_KEPT) kept.delete(kept.keys().next().value!);
+      kept.set(key, text);
+    }
+    return text;
   }
 
   function deliveryView(sf: StudioForecast, fc: CommissionForecast, hours: number, ahead: number): EarliestDeliveryView {
@@ -302,6 +344,7 @@ export function scheduleService(deps: { db: Db; repo: ScheduleRepository; capaci
     describe,
     derived,
     view,
+    viewJson,
 
     /** Puts the queue in a new order; the list must hold exactly the commissions in the queue now. */
     async reorder(actor: Actor, input: QueueOrderInput) {
