@@ -26,7 +26,7 @@ import type { Mailer } from '../../lib/mail/mailer';
 import { templates } from '../../lib/mail/templates';
 import type { Member } from '../../lib/policy';
 import { invoiceCsvChunks } from './invoices.csv';
-import type { CheckoutRow, InvoiceRow, InvoicesRepository, PaymentRow } from './invoices.repository';
+import type { CheckoutRow, InvoiceRow, InvoicesRepository, IssueRow, PaymentRow } from './invoices.repository';
 
 export type Actor = Member & { userId: number };
 /** Who causes a change: a person, or the payment service (userId null). */
@@ -106,6 +106,17 @@ function creditLines(inv: InvoiceRow, amount: number, description: string): Invo
     .filter((l, _i, all) => l.amountMinor !== 0 || all.length === 1);
 }
 
+/** Rows by their invoice, in their order. */
+function byInvoice<T extends { invoice_id: number | null }>(rows: T[]) {
+  const out = new Map<number | null, T[]>();
+  for (const r of rows) {
+    const list = out.get(r.invoice_id);
+    if (list) list.push(r);
+    else out.set(r.invoice_id, [r]);
+  }
+  return out;
+}
+
 export function invoicesService(deps: InvoiceDeps) {
   const { db, repo, payments, mailer, clock, publicUrl } = deps;
   const now = () => iso(clock.now());
@@ -118,7 +129,7 @@ export function invoicesService(deps: InvoiceDeps) {
   }
   const todayIn = (timezone: string) => localDateOf(clock.now().getTime(), timezone);
 
-  function view(r: InvoiceRow, pays: PaymentRow[], issues: Awaited<ReturnType<InvoicesRepository['issues']>>, forClient: boolean, today: string): Invoice {
+  function view(r: InvoiceRow, pays: ReadonlyMap<number | null, PaymentRow[]>, issues: ReadonlyMap<number | null, IssueRow[]>, forClient: boolean, today: string): Invoice {
     const balanceDue = balanceDueOf(r);
     return {
       id: r.id,
@@ -146,12 +157,11 @@ export function invoicesService(deps: InvoiceDeps) {
       overdue: balanceDue > 0 && r.due_date !== null && r.due_date < today,
       creditFor: r.credit_for,
       note: r.note,
-      payments: pays
-        .filter((p) => p.invoice_id === r.id)
+      payments: (pays.get(r.id) ?? [])
         .map((p) => ({ id: p.id, method: p.method, amountMinor: p.amount, receivedAt: p.received_at, reference: forClient && p.method === 'card' ? null : p.reference, refundedMinor: p.refunded })),
       paymentIssues: forClient
         ? []
-        : issues.filter((i) => i.invoice_id === r.id).map((i) => ({ eventId: i.id, at: i.received_at, sessionId: i.session_id, reason: i.reason ?? '' })),
+        : (issues.get(r.id) ?? []).map((i) => ({ eventId: i.id, at: i.received_at, sessionId: i.session_id, reason: i.reason ?? '' })),
       createdAt: r.created_at,
     };
   }
@@ -160,7 +170,9 @@ export function invoicesService(deps: InvoiceDeps) {
     const ids = rows.map((r) => r.id);
     const [pays, issues, s] = await Promise.all([repo.payments(studioId, ids, trx), forClient ? Promise.resolve([]) : repo.issues(studioId, ids), studioOf(studioId, trx)]);
     const today = todayIn(s.timezone);
-    return rows.map((r) => view(r, pays, issues, forClient, today));
+    const paysBy = byInvoice(pays);
+    const issuesBy = byInvoice(issues);
+    return rows.map((r) => view(r, paysBy, issuesBy, forClient, today));
   }
   const viewOne = async (studioId: number, id: number, forClient = false) => (await views(studioId, [(await repo.get(studioId, id))!], forClient))[0];
 
