@@ -169,7 +169,7 @@ function firstNonEmptyLineAfter(text: string, line: number): number {
  * The rack as CSV with a byte-order mark (so spreadsheet programs read it as UTF-8) and CRLF line ends.
  * A cell a spreadsheet would run as a formula gets an apostrophe (server/lib/csv); the import takes it off.
  */
-export function paintsToCsv(paints: Paint[]): string {
+export function paintsToCsv(paints: Pick<Paint, 'name' | 'maker' | 'range' | 'type' | 'finish' | 'hex' | 'stock' | 'lowStockThreshold' | 'notes'>[]): string {
   const rows = paints.map((p) => [
     p.name,
     p.maker ?? '',

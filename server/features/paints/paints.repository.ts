@@ -1,4 +1,5 @@
 import { stockState, type CreatePaintInput, type Finish, type Paint, type PaintFilter, type PaintRef, type PaintType, type UpdatePaintInput } from '../../../shared/schemas/paints';
+import type { Knex } from 'knex';
 import type { Db } from '../../lib/db';
 import type { PageParams } from '../../../shared/schemas/common';
 import { pageRows } from '../../lib/page';
@@ -20,6 +21,9 @@ export type PaintRow = {
   updated_at: string;
   recipe_count?: number | string | null;
 };
+
+/** What a line of the rack's CSV reads. */
+export type PaintCsvRow = Pick<PaintRow, 'name' | 'maker' | 'range_name' | 'type' | 'finish' | 'hex' | 'stock' | 'low_stock_threshold' | 'notes'>;
 
 /** One paint of a name per maker in a studio, compared without regard to case. */
 export const matchKey = (name: string, maker: string | null | undefined) => `${name.trim().toLowerCase()}|${(maker ?? '').trim().toLowerCase()}`;
@@ -64,39 +68,62 @@ function toRow(input: UpdatePaintInput) {
 
 const escapeLike = (s: string) => `%${s.toLowerCase().replace(/[\\%_]/g, (c) => `\\${c}`)}%`;
 
+/** The rack's filter and order on a query of paints as p. */
+function filtered(qb: Knex.QueryBuilder, q: PaintFilter) {
+  if (q.q) {
+    const like = escapeLike(q.q);
+    qb.where((w) =>
+      w
+        .whereRaw("lower(p.name) like ? escape '\\'", [like])
+        .orWhereRaw("lower(p.maker) like ? escape '\\'", [like])
+        .orWhereRaw("lower(p.range_name) like ? escape '\\'", [like])
+        .orWhereRaw("lower(p.hex) like ? escape '\\'", [like]),
+    );
+  }
+  if (q.type) qb.where('p.type', q.type);
+  if (q.stock === 'out') qb.where('p.stock', '<=', 0);
+  if (q.stock === 'low') qb.where('p.stock', '>', 0).whereNotNull('p.low_stock_threshold').whereRaw('p.stock < p.low_stock_threshold');
+  if (q.stock === 'short') qb.where((w) => w.where('p.stock', '<=', 0).orWhere((o) => o.whereNotNull('p.low_stock_threshold').whereRaw('p.stock < p.low_stock_threshold')));
+  qb.orderByRaw('lower(p.name), lower(p.maker), p.id');
+  return qb;
+}
+
 /** Every query takes the studio id first. */
 export function paintsRepository(db: Db) {
+  // What toPaint reads (not the match key), with the count of recipes using the paint.
   const base = (studioId: number, trx: Db = db) =>
     trx('paints as p')
       .where('p.studio_id', studioId)
       .select(
-        'p.*',
+        'p.id',
+        'p.name',
+        'p.maker',
+        'p.range_name',
+        'p.type',
+        'p.finish',
+        'p.hex',
+        'p.stock',
+        'p.low_stock_threshold',
+        'p.notes',
+        'p.created_at',
+        'p.updated_at',
         // studio and paint, in that order: the (studio_id, paint_id) index of recipe_step_paints answers it
         trx('recipe_step_paints as sp').join('recipe_steps as s', 's.id', 'sp.step_id').whereRaw('sp.studio_id = p.studio_id and sp.paint_id = p.id').countDistinct('s.recipe_id').as('recipe_count'),
       );
   return {
-    /** The paints that match the filter, by name; one page of them when `page` is given (the export takes all). */
+    /** The paints that match the filter, by name; one page of them when `page` is given. */
     async list(studioId: number, q: PaintFilter = {}, page?: PageParams) {
-      const qb = base(studioId);
-      if (q.q) {
-        const like = escapeLike(q.q);
-        qb.where((w) =>
-          w
-            .whereRaw("lower(p.name) like ? escape '\\'", [like])
-            .orWhereRaw("lower(p.maker) like ? escape '\\'", [like])
-            .orWhereRaw("lower(p.range_name) like ? escape '\\'", [like])
-            .orWhereRaw("lower(p.hex) like ? escape '\\'", [like]),
-        );
-      }
-      if (q.type) qb.where('p.type', q.type);
-      if (q.stock === 'out') qb.where('p.stock', '<=', 0);
-      if (q.stock === 'low') qb.where('p.stock', '>', 0).whereNotNull('p.low_stock_threshold').whereRaw('p.stock < p.low_stock_threshold');
-      if (q.stock === 'short') qb.where((w) => w.where('p.stock', '<=', 0).orWhere((o) => o.whereNotNull('p.low_stock_threshold').whereRaw('p.stock < p.low_stock_threshold')));
-      qb.orderByRaw('lower(p.name), lower(p.maker), p.id');
+      const qb = filtered(base(studioId), q);
       if (!page) return { items: ((await qb) as PaintRow[]).map(toPaint), total: null };
       const { rows, total } = await pageRows<PaintRow>(qb, page);
       return { items: rows.map(toPaint), total };
     },
+    /** The whole rack by name with what its CSV shows: no recipe counts, ids or times. */
+    exportRows: (studioId: number) =>
+      db('paints as p')
+        .where('p.studio_id', studioId)
+        .orderByRaw('lower(p.name), lower(p.maker), p.id')
+        .select('p.name', 'p.maker', 'p.range_name', 'p.type', 'p.finish', 'p.hex', 'p.stock', 'p.low_stock_threshold', 'p.notes') as Promise<PaintCsvRow[]>,
     get: (studioId: number, id: number, trx: Db = db) =>
       base(studioId, trx)
         .where('p.id', id)

@@ -145,7 +145,8 @@ export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clo
     },
 
     async exportCsv(studioId: number) {
-      return paintsToCsv((await repo.list(studioId)).items);
+      const rows = await repo.exportRows(studioId);
+      return paintsToCsv(rows.map((r) => ({ name: r.name, maker: r.maker, range: r.range_name, type: r.type, finish: r.finish, hex: r.hex, stock: r.stock, lowStockThreshold: r.low_stock_threshold, notes: r.notes })));
     },
 
     async nearest(studioId: number, hex: string, k: number) {
