@@ -23,7 +23,8 @@ export type EnquiryRow = {
   decline_message: string | null;
 };
 
-export type EnquiryListRow = EnquiryRow & { figure_count: number | string | null; model_count: number | string | null; photo_count: number | string | null };
+/** An enquiry as its list shows it. */
+export type EnquiryListRow = Pick<EnquiryRow, 'id' | 'status' | 'name' | 'email' | 'tier' | 'due_date' | 'created_at'> & { figure_count: number | string | null; model_count: number | string | null; photo_count: number | string | null };
 export type EnquiryFigureRow = { id: number; studio_id: number; enquiry_id: number; position: number; name: string; quantity: number; size_class: string };
 export type EnquiryPhotoRow = {
   id: number;
@@ -75,7 +76,8 @@ export function enquiriesRepository(db: Db) {
       };
       const [rows, count] = await Promise.all([
         filter(db('enquiries as e'))
-          .select('e.*')
+          // what a summary shows: not the notes, extras or consent of each enquiry
+          .select('e.id', 'e.status', 'e.name', 'e.email', 'e.tier', 'e.due_date', 'e.created_at')
           .orderBy([{ column: 'e.created_at', order: 'desc' }, { column: 'e.id', order: 'desc' }])
           .limit(q.limit)
           .offset(q.offset),
@@ -91,8 +93,15 @@ export function enquiriesRepository(db: Db) {
         : [[], []];
       const figuresOf = new Map((figures as Record<string, unknown>[]).map((f) => [Number(f.enquiry_id), f]));
       const photosOf = new Map((photos as Record<string, unknown>[]).map((p) => [Number(p.enquiry_id), p]));
-      const withCounts = (rows as Record<string, unknown>[]).map((r) => ({
-        ...r,
+      // Built key by key: a spread copy of a driver's row object is slow.
+      const withCounts = (rows as EnquiryListRow[]).map((r) => ({
+        id: r.id,
+        status: r.status,
+        name: r.name,
+        email: r.email,
+        tier: r.tier,
+        due_date: r.due_date,
+        created_at: r.created_at,
         figure_count: figuresOf.get(Number(r.id))?.figure_count ?? 0,
         model_count: figuresOf.get(Number(r.id))?.model_count ?? 0,
         photo_count: photosOf.get(Number(r.id))?.photo_count ?? 0,
