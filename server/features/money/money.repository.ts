@@ -6,7 +6,12 @@ const n = (v: unknown) => Number(v ?? 0);
 /** Read-only sums over a studio's invoices and payments for the owner's money view. */
 export function moneyRepository(db: Db) {
   return {
-    studio: (studioId: number) => db('studios').where({ id: studioId }).first('timezone', 'currency') as Promise<{ timezone: string; currency: string } | undefined>,
+    /** The studio's zone and currency, with its saved price table's text if it has one (one query). */
+    studio: (studioId: number) =>
+      db('studios as s')
+        .leftJoin('price_tables as pt', 'pt.studio_id', 's.id')
+        .where('s.id', studioId)
+        .first('s.timezone', 's.currency', 'pt.table_json') as Promise<{ timezone: string; currency: string; table_json: string | null } | undefined>,
     /** Issued invoices still to be paid (credit notes aside), with their client. */
     async unpaid(studioId: number) {
       const rows = await db('invoices as i')

@@ -1,18 +1,33 @@
 import { civilDate, dayNumber, localDateOf, localDayOf, zonedInstant } from '../../../shared/dates';
 import type { MoneyView } from '../../../shared/schemas/invoices';
+import { currency as currencySchema, defaultPriceTable } from '../../../shared/schemas/price-table';
 import type { PriceTableService } from '../price-table/price-table.service';
 import type { Clock } from '../../lib/clock';
 import { errors } from '../../lib/errors';
 import type { MoneyRepository } from './money.repository';
 
+/**
+ * The currency of the studio's price table, as the price table service gives it (its get() validates the
+ * whole table, which the money view does not need): the saved table's currency as the schema reads it
+ * (trimmed, upper case), the saved text if that does not pass, or the default table's (the studio's currency).
+ * A saved table is validated when it is saved, so its currency passes as it is.
+ */
+function tableCurrency(s: { currency: string; table_json: string | null }): string {
+  if (s.table_json === null) return defaultPriceTable(s.currency).currency;
+  const saved = (JSON.parse(s.table_json) as { currency?: unknown }).currency;
+  const parsed = currencySchema.safeParse(saved);
+  return parsed.success ? parsed.data : (saved as string);
+}
+
 /** The owner's money view: what is owed by whom, what came in this month, deposits held for work not begun. */
-export function moneyService(deps: { repo: MoneyRepository; priceTables: Pick<PriceTableService, 'get'>; clock: Clock }) {
-  const { repo, priceTables, clock } = deps;
+/** `priceTables` is no longer read (the currency comes with the studio's row); app.ts still passes it. */
+export function moneyService(deps: { repo: MoneyRepository; priceTables?: Pick<PriceTableService, 'get'>; clock: Clock }) {
+  const { repo, clock } = deps;
   return {
     async view(studioId: number): Promise<MoneyView> {
       const s = await repo.studio(studioId);
       if (!s) throw errors.notFound('That studio');
-      const currency = (await priceTables.get(studioId)).currency;
+      const currency = tableCurrency(s);
       const nowMs = clock.now().getTime();
       const today = localDateOf(nowMs, s.timezone);
       // The calendar month in the studio's timezone, as UTC instants (stored times are UTC ISO strings).
