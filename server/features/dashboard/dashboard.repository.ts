@@ -9,7 +9,7 @@ export function dashboardRepository(db: Db) {
     version: (studioId: number) => booksVersion(db, studioId),
 
     byStatus: (studioId: number) =>
-      db('commissions').where({ studio_id: studioId }).groupBy('status').select('status').count({ n: '*' }) as Promise<{ status: CommissionStatus; n: number | string }[]>,
+      db('commissions').where({ studio_id: studioId }).groupBy('status').orderBy('status').select('status').count({ n: '*' }) as Promise<{ status: CommissionStatus; n: number | string }[]>,
 
     /** The first `limit` stages not done or skipped, of queued commissions whose due date is before `today`, and how many there are. */
     async overdueStages(studioId: number, today: string, limit: number) {
