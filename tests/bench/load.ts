@@ -151,7 +151,7 @@ async function bareServers(dir: string) {
   return { ...ports, stop: () => process.kill(-child.pid!, 'SIGTERM') };
 }
 
-/** Processes serving the app in the production shape (one per core); WORKERS in the environment overrides it. */
+/** Processes serving the app in the production shape (one per core); BENCH_WORKERS overrides it (1: one process only). */
 const WORKERS = Number(process.env.BENCH_WORKERS ?? os.availableParallelism());
 
 /**
