@@ -88,8 +88,19 @@ export function recipesRepository(db: Db) {
     }
   }
 
+  /**
+   * The steps of some recipes in order, each with its paints in order: one row per paint on this studio's rack,
+   * or one row with the paint columns null for a step without one. The caller picks the columns.
+   */
+  const stepPaintRows = (studioId: number, recipeIds: number[]) =>
+    db('recipe_steps as s')
+      .leftJoin('recipe_step_paints as sp', (j) => j.on('sp.step_id', 's.id').andOn('sp.studio_id', 's.studio_id'))
+      .leftJoin('paints as p', (j) => j.on('p.id', 'sp.paint_id').andOn('p.studio_id', 's.studio_id'))
+      .where('s.studio_id', studioId)
+      .whereIn('s.recipe_id', recipeIds)
+      .orderBy(['s.recipe_id', 's.position', 's.id', 'sp.position']);
+
   return {
-    /** One page of the recipes, by name. */
     /** One page of the recipes, by name, with what a summary shows (no description). */
     list(studioId: number, q: RecipeListQuery) {
       const qb = db('recipes as r')
@@ -105,12 +116,7 @@ export function recipesRepository(db: Db) {
      */
     summarySteps: (studioId: number, recipeIds: number[]) =>
       recipeIds.length
-        ? (db('recipe_steps as s')
-            .leftJoin('recipe_step_paints as sp', (j) => j.on('sp.step_id', 's.id').andOn('sp.studio_id', 's.studio_id'))
-            .leftJoin('paints as p', (j) => j.on('p.id', 'sp.paint_id').andOn('p.studio_id', 's.studio_id'))
-            .where('s.studio_id', studioId)
-            .whereIn('s.recipe_id', recipeIds)
-            .orderBy(['s.recipe_id', 's.position', 's.id', 'sp.position'])
+        ? (stepPaintRows(studioId, recipeIds)
             .select('s.id', 's.recipe_id', 's.technique', 's.airbrush', 's.dilution_with', 's.dilution_paint_parts', 's.ladder_steps', 'sp.parts as sp_parts', 'p.type as p_type', 'p.hex as p_hex') as Promise<SummaryStepRow[]>)
         : Promise.resolve([] as SummaryStepRow[]),
     get: (studioId: number, id: number, trx: Db = db) =>
@@ -119,18 +125,10 @@ export function recipesRepository(db: Db) {
         .first()
         .then((r) => r as RecipeRow | undefined),
     byIds: (studioId: number, ids: number[]) => (ids.length ? base(studioId).whereIn('r.id', ids).then((rows) => rows as RecipeRow[]) : Promise.resolve([] as RecipeRow[])),
-    /**
-     * The steps of some recipes in order, each with its paints in order (one row per paint; a step without a
-     * paint on this studio's rack has one row with the paint columns null): one query for a page of recipes.
-     */
+    /** The steps of some recipes with their paints, everything a recipe's view shows: one query for a page of recipes. */
     stepsWithPaints: (studioId: number, recipeIds: number[]) =>
       recipeIds.length
-        ? (db('recipe_steps as s')
-            .leftJoin('recipe_step_paints as sp', (j) => j.on('sp.step_id', 's.id').andOn('sp.studio_id', 's.studio_id'))
-            .leftJoin('paints as p', (j) => j.on('p.id', 'sp.paint_id').andOn('p.studio_id', 's.studio_id'))
-            .where('s.studio_id', studioId)
-            .whereIn('s.recipe_id', recipeIds)
-            .orderBy(['s.recipe_id', 's.position', 's.id', 'sp.position'])
+        ? (stepPaintRows(studioId, recipeIds)
             .select(
               's.id',
               's.recipe_id',
