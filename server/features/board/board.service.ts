@@ -7,6 +7,7 @@ import type { StudioSetupService } from '../studio-setup/studio-setup.service';
 import { parseKeys } from '../studio-setup/studio-setup.repository';
 import { deepFreeze } from '../schedule/forecast-cache';
 import type { BoardRepository, BoardWaitRow } from './board.repository';
+import { groupBy } from '../../lib/group-by';
 
 /** The end of a wait from an earlier done stage that still runs: the figure should not go on before it. */
 function waitingUntil(waits: BoardWaitRow[], position: number, now: Date): string | null {
@@ -59,12 +60,7 @@ export function boardService(deps: { repo: BoardRepository; setup: StudioSetupSe
   async function read(studioId: number, q: BoardQuery): Promise<Kept> {
     const [rows, total] = await Promise.all([repo.page(studioId, q), repo.count(studioId, q)]);
     const waits = rows.length ? await repo.waits(studioId, rows.map((r) => r.figure_id)) : [];
-    const waitsOf = new Map<number, BoardWaitRow[]>();
-    for (const w of waits) {
-      const list = waitsOf.get(w.figure_id);
-      if (list) list.push(w);
-      else waitsOf.set(w.figure_id, [w]);
-    }
+    const waitsOf = groupBy(waits, (w) => w.figure_id);
     const template = (await setup.template(studioId)).map((s) => ({ key: s.key, name: s.name }));
     const cards = rows.map((r): KeptCard => {
       const card: BoardCard = {

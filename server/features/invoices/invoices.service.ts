@@ -27,6 +27,7 @@ import { templates } from '../../lib/mail/templates';
 import type { Member } from '../../lib/policy';
 import { invoiceCsvChunks } from './invoices.csv';
 import type { CheckoutRow, InvoiceRow, InvoicesRepository, IssueRow, PaymentRow } from './invoices.repository';
+import { groupBy } from '../../lib/group-by';
 
 export type Actor = Member & { userId: number };
 /** Who causes a change: a person, or the payment service (userId null). */
@@ -106,17 +107,6 @@ function creditLines(inv: InvoiceRow, amount: number, description: string): Invo
     .filter((l, _i, all) => l.amountMinor !== 0 || all.length === 1);
 }
 
-/** Rows by their invoice, in their order. */
-function byInvoice<T extends { invoice_id: number | null }>(rows: T[]) {
-  const out = new Map<number | null, T[]>();
-  for (const r of rows) {
-    const list = out.get(r.invoice_id);
-    if (list) list.push(r);
-    else out.set(r.invoice_id, [r]);
-  }
-  return out;
-}
-
 export function invoicesService(deps: InvoiceDeps) {
   const { db, repo, payments, mailer, clock, publicUrl } = deps;
   const now = () => iso(clock.now());
@@ -170,8 +160,8 @@ export function invoicesService(deps: InvoiceDeps) {
     const ids = rows.map((r) => r.id);
     const [pays, issues, s] = await Promise.all([repo.payments(studioId, ids, trx), forClient ? Promise.resolve([]) : repo.issues(studioId, ids), studioOf(studioId, trx)]);
     const today = todayIn(s.timezone);
-    const paysBy = byInvoice(pays);
-    const issuesBy = byInvoice(issues);
+    const paysBy = groupBy(pays, (p) => p.invoice_id);
+    const issuesBy = groupBy(issues, (i) => i.invoice_id);
     return rows.map((r) => view(r, paysBy, issuesBy, forClient, today));
   }
   const viewOne = async (studioId: number, id: number, forClient = false) => (await views(studioId, [(await repo.get(studioId, id))!], forClient))[0];

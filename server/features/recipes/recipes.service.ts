@@ -17,6 +17,7 @@ import { errors } from '../../lib/errors';
 import { pageOf } from '../../lib/page';
 import type { PaintsService } from '../paints/paints.service';
 import type { RecipeListRow, RecipeRow, RecipesRepository, StepRow } from './recipes.repository';
+import { pushTo } from '../../lib/group-by';
 
 const round2 = (n: number) => Math.round(n * 100) / 100;
 
@@ -64,12 +65,7 @@ export function recipesService(deps: { repo: RecipesRepository; paints: Pick<Pai
   /** Recipes from their rows and their steps in order, with each step's paints (by step id). */
   function assemble(rows: (RecipeListRow & Partial<Pick<RecipeRow, 'description'>>)[], steps: StepRow[], paintsByStep: ReadonlyMap<number, StepPaint[]>): Recipe[] {
     const stepsByRecipe = new Map<number, RecipeStep[]>();
-    for (const s of steps) {
-      const view = stepView(s, paintsByStep.get(s.id) ?? []);
-      const list = stepsByRecipe.get(s.recipe_id);
-      if (list) list.push(view);
-      else stepsByRecipe.set(s.recipe_id, [view]);
-    }
+    for (const s of steps) pushTo(stepsByRecipe, s.recipe_id, stepView(s, paintsByStep.get(s.id) ?? []));
     return rows.map((r) => {
       const views = stepsByRecipe.get(r.id) ?? [];
       return {
@@ -87,12 +83,6 @@ export function recipesService(deps: { repo: RecipesRepository; paints: Pick<Pai
       };
     });
   }
-
-  const pushTo = <K, V>(map: Map<K, V[]>, key: K, value: V) => {
-    const list = map.get(key);
-    if (list) list.push(value);
-    else map.set(key, [value]);
-  };
 
   /**
    * Recipes with their steps and paints, loaded in one query whatever the number: the steps joined with

@@ -27,6 +27,7 @@ import { errors } from '../../lib/errors';
 import type { Actor, CapacityService } from '../capacity/capacity.service';
 import { deepFreeze, forecastCache } from './forecast-cache';
 import type { QueueRow, ScheduleRepository, WorkFigureRow, WorkStageRow } from './schedule.repository';
+import { groupBy } from '../../lib/group-by';
 
 const HOUR_MIN = 60;
 
@@ -53,18 +54,6 @@ function stageWork(s: WorkStageRow, loggedMinutes: number, now: string): StageWo
 }
 
 type Work = { figures: WorkFigureRow[]; stages: WorkStageRow[]; logged: ReadonlyMap<number, number> };
-
-/** Rows grouped by a key, in their order: one pass, so a long queue costs no more than its rows. */
-function groupBy<T>(rows: T[], key: (r: T) => number) {
-  const out = new Map<number, T[]>();
-  for (const r of rows) {
-    const k = key(r);
-    const list = out.get(k);
-    if (list) list.push(r);
-    else out.set(k, [r]);
-  }
-  return out;
-}
 
 function workOf(cs: Pick<QueueRow, 'id' | 'due_date'>[], work: Work, now: string): CommissionWork[] {
   const figuresOf = groupBy(work.figures, (f) => f.commission_id);
