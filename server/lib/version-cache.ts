@@ -19,6 +19,7 @@
  */
 
 import type { Db } from './db';
+import { deepFreeze } from './deep-freeze';
 
 /**
  * The studio's schedule version: database triggers move it with every committed change to a row the
@@ -124,7 +125,8 @@ export function versionCache<V>(opts: { maxWeight: number; weigh: (v: V) => numb
 }
 
 /**
- * A read kept by studio version and key: `read()` once per version and key, or every time when `maxWeight`
+ * A read kept by studio version and key, frozen (deepFreeze: whoever is given a kept value cannot change it
+ * for the next caller; with the cache off it is frozen too, so both answer alike): `read()` once per version and key, or every time when `maxWeight`
  * is 0 (no cache) or the studio is unknown. The version is read first and the data after it: a write
  * committed between the two only makes the data kept newer than its key, never older, and the next request
  * reads the newer version and misses. Whoever reads a version after a write's commit therefore never gets
@@ -138,11 +140,12 @@ export function keptReads<V, At extends number | { version: number } = number>(o
   const cache = opts.maxWeight > 0 ? versionCache<V>(opts) : null;
   /** `key` may be worked out from what the version read gave beside the version (e.g. a month in the studio's zone). */
   return async (studioId: number, key: string | ((at: At) => string), read: () => Promise<V>): Promise<V> => {
-    if (!cache) return read();
+    const frozen = () => read().then(deepFreeze);
+    if (!cache) return frozen();
     const at = await opts.version(studioId);
-    if (at === undefined) return read();
+    if (at === undefined) return frozen();
     const version = typeof at === 'number' ? at : at.version;
     const k = typeof key === 'string' ? key : key(at);
-    return cache.get(studioId, version, k) ?? cache.set(studioId, version, k, read());
+    return cache.get(studioId, version, k) ?? cache.set(studioId, version, k, frozen());
   };
 }

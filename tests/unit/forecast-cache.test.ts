@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
-import { deepFreeze, forecastCache } from '../../server/features/schedule/forecast-cache';
+import { deepFreeze } from '../../server/lib/deep-freeze';
+import { forecastCache } from '../../server/features/schedule/forecast-cache';
 
 // The in-memory store behind the studio forecast cache (server/features/schedule/schedule.service.ts run()).
 

@@ -64,4 +64,16 @@ describe('kept reads keyed by what the version read gives', () => {
     expect(await off.kept(1, () => 'k', off.read(2))).toEqual({ n: 2 });
     expect(off.versionReads).toEqual([]);
   });
+
+  it('gives what it keeps frozen, kept or not, so no caller can change the next caller’s answer', async () => {
+    for (const maxWeight of [100, 0]) {
+      const { kept } = setup(maxWeight);
+      const v = (await kept(1, 'nested', async () => ({ n: 1, rows: [{ id: 7 }] }) as { n: number })) as { n: number; rows: { id: number }[] };
+      expect(Object.isFrozen(v)).toBe(true);
+      expect(Object.isFrozen(v.rows[0])).toBe(true);
+      expect(() => {
+        v.rows[0].id = 8;
+      }).toThrow(TypeError);
+    }
+  });
 });

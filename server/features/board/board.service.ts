@@ -5,7 +5,6 @@ import type { Clock } from '../../lib/clock';
 import { keptReads } from '../../lib/version-cache';
 import type { StudioSetupService } from '../studio-setup/studio-setup.service';
 import { parseKeys } from '../studio-setup/studio-setup.repository';
-import { deepFreeze } from '../schedule/forecast-cache';
 import type { BoardRepository, BoardWaitRow } from './board.repository';
 import { groupBy } from '../../lib/group-by';
 
@@ -77,7 +76,7 @@ export function boardService(deps: { repo: BoardRepository; setup: StudioSetupSe
       const before = (waitsOf.get(r.figure_id) ?? []).filter((w) => w.position < r.stage_position! && w.status === 'done');
       return { card, column: r.template_key!, columnName: r.stage_name!, position: r.stage_position!, waits: before.length ? before : null };
     });
-    return deepFreeze({ template, cards, total });
+    return { template, cards, total };
   }
 
   return {

@@ -22,7 +22,6 @@ import { errors } from '../../lib/errors';
 import { keptReads } from '../../lib/version-cache';
 import type { ActivityService } from '../activity/activity.service';
 import type { Actor, FiguresService } from '../figures/figures.service';
-import { deepFreeze } from '../schedule/forecast-cache';
 import type { CommissionListRow, CommissionRow, CommissionsRepository } from './commissions.repository';
 
 const num = (v: number | string | null | undefined) => Number(v ?? 0);
@@ -89,7 +88,7 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
 
   async function readList(studioId: number, q: ListQuery): Promise<KeptList> {
     const { rows, total } = await repo.list(studioId, q);
-    return deepFreeze({ items: rows.map((r) => summaryOf(r, listTotals(r), num(r.figure_count), num(r.model_count))), total });
+    return { items: rows.map((r) => summaryOf(r, listTotals(r), num(r.figure_count), num(r.model_count))), total };
   }
 
   const now = () => iso(clock.now());

@@ -14,7 +14,6 @@ import { errors } from '../../lib/errors';
 import { keptReads } from '../../lib/version-cache';
 import type { Actor } from '../capacity/capacity.service';
 import type { ReportsService } from '../reports/reports.service';
-import { deepFreeze } from '../schedule/forecast-cache';
 import { timelineWeeks, type ScheduleService, type StudioForecast } from '../schedule/schedule.service';
 import type { DashboardRepository } from './dashboard.repository';
 
@@ -244,7 +243,7 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
     async get(actor: Actor): Promise<Dashboard> {
       if (actor.role === 'owner') {
         const minute = Math.floor(clock.now().getTime() / MINUTE_MS);
-        return keptOwner(actor.studioId, `owner|${actor.userId}|${minute}`, async () => deepFreeze(await owner(actor, await schedule.run(actor.studioId))));
+        return keptOwner(actor.studioId, `owner|${actor.userId}|${minute}`, async () => owner(actor, await schedule.run(actor.studioId)));
       }
       const sf = await schedule.run(actor.studioId);
       if (actor.role === 'painter') return { role: 'painter', ...(await bench(actor.studioId, actor.userId, sf)) };

@@ -7,7 +7,6 @@ import type { ActualsReport, BooksSettings, BooksSettingsInput, CommissionEarnin
 import { iso, type Clock } from '../../lib/clock';
 import { errors } from '../../lib/errors';
 import { keptReads } from '../../lib/version-cache';
-import { deepFreeze } from '../schedule/forecast-cache';
 import type { MoneyMove, ReportsRepository } from './reports.repository';
 
 /** Where the books read the studio's price table (the price-table feature's service in the app). */
@@ -261,13 +260,13 @@ export function reportsService(deps: { repo: ReportsRepository; priceTables: Pri
       return settings(studioId);
     },
 
-    actuals: (studioId: number) => kept(studioId, 'actuals', async () => deepFreeze(await actuals(studioId))) as Promise<ActualsReport>,
+    actuals: (studioId: number) => kept(studioId, 'actuals', () => actuals(studioId)) as Promise<ActualsReport>,
 
     earnings(studioId: number, q: EarningsQuery): Promise<EarningsReport> {
       const now = clock.now().getTime();
       // "This month" counts only when the query leaves out its last month.
       const key = (at: { timeZone: string }) => `earnings|${q.from ?? ''}|${q.to ?? `now ${localDateOf(now, at.timeZone).slice(0, 7)}`}`;
-      return kept(studioId, key, async () => deepFreeze(await earnings(studioId, q, now))) as Promise<EarningsReport>;
+      return kept(studioId, key, () => earnings(studioId, q, now)) as Promise<EarningsReport>;
     },
 
     unpaidInvoices: (studioId: number) => repo.unpaidInvoices(studioId),

@@ -25,7 +25,8 @@ import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
 import { errors } from '../../lib/errors';
 import type { Actor, CapacityService } from '../capacity/capacity.service';
-import { deepFreeze, forecastCache } from './forecast-cache';
+import { deepFreeze } from '../../lib/deep-freeze';
+import { forecastCache } from './forecast-cache';
 import type { QueueRow, ScheduleRepository, WorkFigureRow, WorkStageRow } from './schedule.repository';
 import { groupBy } from '../../lib/group-by';
 
