@@ -105,5 +105,4 @@ export function runPrimary(sw: SableworkApp, config: Config, onListening: (port:
   for (let i = 0; i < config.workers; i++) fork();
   process.on('SIGINT', () => void stop(0));
   process.on('SIGTERM', () => void stop(0));
-  return { stop };
 }
