@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { secondPainter, userId } from '../support/fixtures';
 import { idOf, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
-import { afterEachWrite } from '../support/kept-reads';
+import { afterEachWrite, bothClocks } from '../support/kept-reads';
 
 // The bench board keeps what it read in memory per studio, schedule version and query
 // (server/features/board/board.service.ts). Two app instances share one database (one SQLite file, or one
@@ -13,6 +13,7 @@ import { afterEachWrite } from '../support/kept-reads';
 
 let cached: TestApp;
 let fresh: TestApp;
+const { at, advance } = bothClocks(() => [cached, fresh]);
 let studioId: number;
 let otherStudioId: number;
 let clientId: number;
@@ -25,14 +26,6 @@ const ids: Record<string, number> = {};
 let templateKeys: string[] = [];
 
 
-function at(time: string) {
-  cached.clock.set(time);
-  fresh.clock.set(time);
-}
-function advance(ms: number) {
-  cached.clock.advance(ms);
-  fresh.clock.advance(ms);
-}
 
 /** A commission straight in the database, its stages on the studio's template keys (one stage off the template when `offTemplate`). */
 async function commission(studio: number, client: number, title: string, status: string, due: string | null, figures: { painter: number | null; stages: { minutes: number; wait?: number; status?: string; doneAt?: string }[] }[], offTemplate = false) {

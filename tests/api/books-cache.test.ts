@@ -3,7 +3,7 @@ import type { Config } from '../../server/config';
 import { defaultPriceTable } from '../../shared/schemas/price-table';
 import { PASSWORD, signInAs, startTestApp, withQueries, type Caller, type TestApp } from '../support/app';
 import { acceptedQuote, commission, invoicesOf, moneyStudios, type Side } from './money-flow';
-import { afterEachWrite } from '../support/kept-reads';
+import { afterEachWrite, bothClocks } from '../support/kept-reads';
 
 // The books (earnings, actuals) and the owner's home are kept in memory under the books version
 // (server/features/reports/reports.service.ts, server/features/dashboard/dashboard.service.ts;
@@ -17,6 +17,7 @@ import { afterEachWrite } from '../support/kept-reads';
 
 let cached: TestApp;
 let fresh: TestApp;
+const { at, advance } = bothClocks(() => [cached, fresh]);
 let a: Side;
 let b: Side;
 let base: string;
@@ -29,10 +30,6 @@ let figureIds: number[] = [];
 /** Off on the fresh instance. */
 const booksOff: Partial<Config> = { booksCacheRows: 0, forecastCacheStages: 0 };
 
-function at(time: string) {
-  cached.clock.set(time);
-  fresh.clock.set(time);
-}
 
 // eslint-disable-next-line @typescript-eslint/no-explicit-any -- answers compared whole
 const ok = async (res: Promise<{ status: number; body: any }>, status = 200) => {
@@ -129,8 +126,7 @@ describe('the kept books and owner’s home after each write they read', () => {
 
   it('the owner’s own timer started and stopped', async () => {
     await afterWrite(() => ok(callers.fresh.owner.post(`${base}/stages/${stages[2].id}/timer`), 201));
-    cached.clock.advance(30 * 60_000);
-    fresh.clock.advance(30 * 60_000);
+    advance(30 * 60_000);
     await afterWrite(() => ok(callers.cached.owner.post(`${base}/timer/stop`)));
   });
 

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { insertCommission, insertFigure, secondClient } from '../support/fixtures';
 import { PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
-import { afterEachWrite } from '../support/kept-reads';
+import { afterEachWrite, bothClocks } from '../support/kept-reads';
 
 // The commission list keeps what it read in memory per studio, schedule version and query, the client's
 // scope included (server/features/commissions/commissions.service.ts). Two app instances share one
@@ -13,6 +13,7 @@ import { afterEachWrite } from '../support/kept-reads';
 
 let cached: TestApp;
 let fresh: TestApp;
+const { at, advance } = bothClocks(() => [cached, fresh]);
 let studioId: number;
 let otherStudioId: number;
 let clientId: number;
@@ -52,10 +53,7 @@ async function lists(on: 'cached' | 'fresh') {
  * Reads every list on the cached instance (so its cache holds them), moves the clock on a minute (so a
  * write's `updated_at` is new), writes, then expects the cached answers to be the fresh ones and new.
  */
-const afterWrite = afterEachWrite(lists, () => {
-  cached.clock.advance(60_000);
-  fresh.clock.advance(60_000);
-});
+const afterWrite = afterEachWrite(lists, () => advance(60_000));
 
 const figuresOf = async (commissionId: number) => ((await cached.db('figures').where({ commission_id: commissionId }).orderBy('id').select('id')) as { id: number }[]).map((f) => f.id);
 const stagesOf = async (figureId: number) => ((await cached.db('stages').where({ figure_id: figureId }).orderBy('position').select('id')) as { id: number }[]).map((s) => s.id);
@@ -63,8 +61,7 @@ const stagesOf = async (figureId: number) => ((await cached.db('stages').where({
 beforeAll(async () => {
   cached = await startTestApp();
   fresh = await startTestApp({ dataDir: cached.dataDir, commissionListCacheRows: 0 });
-  cached.clock.set('2026-03-02T09:30:00.000Z');
-  fresh.clock.set('2026-03-02T09:30:00.000Z');
+  at('2026-03-02T09:30:00.000Z');
   const { a, b } = await twoStudios(cached);
   studioId = a.studioId;
   otherStudioId = b.studioId;
@@ -82,8 +79,7 @@ beforeAll(async () => {
   };
   // Created a minute apart, so the list's order (newest first) is fixed.
   const made = async (name: string, client: number, over: Record<string, unknown>, figures: number) => {
-    cached.clock.advance(60_000);
-    fresh.clock.advance(60_000);
+    advance(60_000);
     ids[name] = await insertCommission(cached, studioId, client, over);
     for (let i = 0; i < figures; i++) await insertFigure(cached, studioId, ids[name]);
   };

@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { userId } from '../support/fixtures';
 import { Caller, idOf, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type TestApp } from '../support/app';
 import { secondPainter } from '../support/fixtures';
-import { afterEachWrite } from '../support/kept-reads';
+import { afterEachWrite, bothClocks } from '../support/kept-reads';
 
 // The studio forecast is kept in memory per studio under the schedule version the database moves on
 // every write it depends on. Two app instances share one database (one SQLite file, or one PostgreSQL
@@ -15,6 +15,7 @@ import { afterEachWrite } from '../support/kept-reads';
 
 let cached: TestApp;
 let fresh: TestApp;
+const { at, advance } = bothClocks(() => [cached, fresh]);
 let studioId: number;
 let otherStudioId: number;
 let clientId: number;
@@ -27,15 +28,6 @@ const feeds: { owner: string; painter: string } = { owner: '', painter: '' };
 const ids: Record<string, number> = {};
 
 
-/** Both instances' clocks at one moment (they stand for two machines whose clocks agree). */
-function at(time: string) {
-  cached.clock.set(time);
-  fresh.clock.set(time);
-}
-function advance(ms: number) {
-  cached.clock.advance(ms);
-  fresh.clock.advance(ms);
-}
 
 async function commission(sw: TestApp, studio: number, client: number, title: string, status: string, figures: { painter: number | null; stages: { minutes: number; wait?: number }[] }[], due: string | null = null) {
   const now = sw.clock.now().toISOString();

@@ -18,3 +18,13 @@ export function afterEachWrite<T>(read: (on: 'cached' | 'fresh') => Promise<T>, 
     return { before, after };
   };
 }
+
+type Clocked = { clock: { set(time: Date | string): void; advance(ms: number): void } };
+
+/** The instances' clocks moved together: they stand for two machines whose clocks agree. */
+export function bothClocks(apps: () => Clocked[]) {
+  return {
+    at: (time: string) => apps().forEach((a) => a.clock.set(time)),
+    advance: (ms: number) => apps().forEach((a) => a.clock.advance(ms)),
+  };
+}
