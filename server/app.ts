@@ -135,7 +135,9 @@ export async function createApp(config: Config) {
   const logOptions = { level: config.logLevel, redact: { paths: REDACTED, censor: '[hidden]' }, serializers: { req: requestSerializer, err: pino.stdSerializers.err } };
   const log = config.logDestination ? pino(logOptions, config.logDestination) : pino(logOptions);
   const db = openDb(config);
-  await migrate(db);
+  // A worker of several starts after its primary ran them: workers starting together would also race for
+  // Knex's migration lock, and the loser would stop before it served.
+  if (!config.worker) await migrate(db);
 
   // A worker of several (config.worker) uses the primary's capture inbox and payment fake instead of its own.
   const link = config.worker;
