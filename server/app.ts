@@ -287,7 +287,7 @@ export async function createApp(config: Config) {
   });
   passport.deserializeUser((kept: number | { id: number; epoch: number }, done) => {
     const { id, epoch } = typeof kept === 'number' ? { id: kept, epoch: 0 } : kept;
-    authRepo.findUserById(id).then((u) => done(null, u && (u.session_epoch ?? 0) === epoch ? toUser(u) : false), done);
+    authRepo.sessionUser(id).then((u) => done(null, u && (u.session_epoch ?? 0) === epoch ? toUser(u) : false), done);
   });
 
   const app = express();

@@ -1,6 +1,6 @@
 import type { NextFunction, Request, RequestHandler, Response } from 'express';
 import { decimalId, MAX_ID, type Role } from '../../shared/schemas/common';
-import type { Db } from './db';
+import { readFirst, type Db } from './db';
 import { errors } from './errors';
 
 export type AuthUser = { id: number; email: string; name: string; emailNotices: boolean };
@@ -51,12 +51,15 @@ export function allowFactory(db: Db) {
       const raw = String(req.params.studioId);
       const studioId = decimalId.test(raw) ? Number(raw) : Number.NaN;
       if (!Number.isSafeInteger(studioId) || studioId <= 0 || studioId > MAX_ID) throw errors.notFound();
-      const row = await db('memberships as m')
-        .leftJoin('clients as c', function () {
-          this.on('c.studio_id', '=', 'm.studio_id').andOn('c.user_id', '=', 'm.user_id');
-        })
-        .where({ 'm.studio_id': studioId, 'm.user_id': req.user.id })
-        .first('m.role', 'c.id as client_id');
+      const row = await readFirst<{ role: Role; client_id: number | null }>(
+        db,
+        db('memberships as m')
+          .leftJoin('clients as c', function () {
+            this.on('c.studio_id', '=', 'm.studio_id').andOn('c.user_id', '=', 'm.user_id');
+          })
+          .where({ 'm.studio_id': studioId, 'm.user_id': req.user.id })
+          .select('m.role', 'c.id as client_id'),
+      );
       // a non-member learns nothing (404); the log says why
       if (!row) throw Object.assign(errors.notFound(), { refusal: 'not-a-member' });
       if (!roles.includes(row.role)) throw errors.forbidden();

@@ -1,6 +1,6 @@
 import session from 'express-session';
 import { ConnectSessionKnexStore } from 'connect-session-knex';
-import type { Db } from './db';
+import { readFirst, type Db } from './db';
 
 /** How long a session's stored expiry may lag behind its cookie before a request writes it again. */
 export const TOUCH_EVERY_MS = 60_000;
@@ -27,8 +27,26 @@ class GuardedStore extends ConnectSessionKnexStore {
     if (this.written.size > REMEMBERED) this.written.delete(this.written.keys().next().value!);
   }
 
+  /**
+   * Every signed-in request reads its session: on SQLite through readFirst (outside Knex's pool), with the
+   * same condition connect-session-knex writes for SQLite; elsewhere connect-session-knex's own read.
+   */
   override get(sid: string, cb: (err: unknown, s?: session.SessionData | null) => void) {
-    return super.get(sid, cb).catch(() => null);
+    const { knex } = this.options;
+    if (knex.client.dialect !== 'sqlite3') return super.get(sid, cb).catch(() => null);
+    const read = readFirst<{ sess: string }>(knex, knex('sessions').select('sess').where({ sid }).andWhereRaw('datetime(?) <= datetime(expired)', [new Date().toISOString()]));
+    return read
+      .then((row) => (row ? (JSON.parse(row.sess) as session.SessionData) : null))
+      .then(
+        (s) => {
+          cb(null, s);
+          return s;
+        },
+        (err) => {
+          cb(err);
+          return null;
+        },
+      );
   }
   override set(sid: string, s: session.SessionData, cb?: (err?: unknown) => void) {
     this.written.delete(sid);

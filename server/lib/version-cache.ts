@@ -18,7 +18,7 @@
  * entry and reads for itself).
  */
 
-import type { Db } from './db';
+import { readFirst, type Db } from './db';
 import { deepFreeze } from './deep-freeze';
 
 /**
@@ -27,10 +27,9 @@ import { deepFreeze } from './deep-freeze';
  * is no such studio.
  */
 export const scheduleVersion = (db: Db, studioId: number): Promise<number | undefined> =>
-  db('studios')
-    .where({ id: studioId })
-    .first('schedule_version')
-    .then((r: { schedule_version: number | string } | undefined) => (r ? Number(r.schedule_version) : undefined));
+  readFirst<{ schedule_version: number | string }>(db, db('studios').where({ id: studioId }).select('schedule_version')).then((r) =>
+    r ? Number(r.schedule_version) : undefined,
+  );
 
 /**
  * The version of what the books and the owner's home read (server/features/reports/,
@@ -41,12 +40,10 @@ export const scheduleVersion = (db: Db, studioId: number): Promise<number | unde
  * schedule version). Undefined when there is no such studio.
  */
 export const booksVersion = (db: Db, studioId: number): Promise<{ version: number; timeZone: string } | undefined> =>
-  db('studios')
-    .where({ id: studioId })
-    .first('schedule_version', 'books_version', 'timezone')
-    .then((r: { schedule_version: number | string; books_version: number | string; timezone: string } | undefined) =>
-      r ? { version: Number(r.schedule_version) + Number(r.books_version), timeZone: r.timezone } : undefined,
-    );
+  readFirst<{ schedule_version: number | string; books_version: number | string; timezone: string }>(
+    db,
+    db('studios').where({ id: studioId }).select('schedule_version', 'books_version', 'timezone'),
+  ).then((r) => (r ? { version: Number(r.schedule_version) + Number(r.books_version), timeZone: r.timezone } : undefined));
 
 type Entry<V> = { studioId: number; version: number; weight: number; value: Promise<V> };
 

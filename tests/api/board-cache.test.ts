@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { secondPainter, userId } from '../support/fixtures';
 import { idOf, PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
-import { afterEachWrite, bothClocks } from '../support/kept-reads';
+import { afterEachWrite, bothClocks, isFloorRead } from '../support/kept-reads';
 
 // The bench board keeps what it read in memory per studio, schedule version and query
 // (server/features/board/board.service.ts). Two app instances share one database (one SQLite file, or one
@@ -207,11 +207,9 @@ describe('the kept board after each write a card depends on', () => {
 });
 
 /** The signed-in floor every request makes (session, user, membership; a session's expiry moved on) and the version read. */
-const q = '[`"]';
-const floorPatterns = [`^select ${q}sess${q} from`, `${q}sessions${q}`, `^select \\* from ${q}users${q} where ${q}id${q}`, `from ${q}memberships${q} as ${q}m${q}`].map((p) => new RegExp(p));
 const versionReads = (sql: string[]) => sql.filter((s) => /schedule_version/.test(s));
 /** What a board request reads beyond the floor and the version: the board itself (page, count, waits, template). */
-const boardReads = (sql: string[]) => sql.filter((s) => !/schedule_version/.test(s) && !floorPatterns.some((p) => p.test(s)));
+const boardReads = (sql: string[]) => sql.filter((s) => !/schedule_version/.test(s) && !isFloorRead(s));
 
 describe('reading an unchanged board', () => {
   it('the second identical request reads the version and nothing of the board; the uncached instance reads it all again', async () => {

@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { insertCommission, insertFigure, secondClient } from '../support/fixtures';
 import { PASSWORD, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
-import { afterEachWrite, bothClocks } from '../support/kept-reads';
+import { afterEachWrite, bothClocks, isFloorRead } from '../support/kept-reads';
 
 // The commission list keeps what it read in memory per studio, schedule version and query, the client's
 // scope included (server/features/commissions/commissions.service.ts). Two app instances share one
@@ -165,10 +165,9 @@ describe('the kept commission list after each write a row depends on', () => {
 
 /** The signed-in floor every request makes (session, user, membership; a session's expiry moved on) and the version read. */
 const q = '[`"]';
-const floorPatterns = [`^select ${q}sess${q} from`, `${q}sessions${q}`, `^select \\* from ${q}users${q} where ${q}id${q}`, `from ${q}memberships${q} as ${q}m${q}`].map((p) => new RegExp(p));
 const versionReads = (sql: string[]) => sql.filter((s) => /schedule_version/.test(s));
 /** What a list request reads beyond the floor and the version: the list itself (page and count). */
-const listReads = (sql: string[]) => sql.filter((s) => !/schedule_version/.test(s) && !floorPatterns.some((p) => p.test(s)));
+const listReads = (sql: string[]) => sql.filter((s) => !/schedule_version/.test(s) && !isFloorRead(s));
 const pageReads = (sql: string[]) => sql.filter((s) => new RegExp(`from ${q}commissions${q} as ${q}c${q}`).test(s) && /order by/.test(s));
 
 describe('reading an unchanged list', () => {

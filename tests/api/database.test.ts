@@ -6,8 +6,8 @@ import os from 'node:os';
 import path from 'node:path';
 import knexFactory from 'knex';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { isUniqueViolation, migrate, openDb, rollbackAll, type Db } from '../../server/lib/db';
-import { signUp, startTestApp, type TestApp } from '../support/app';
+import { isUniqueViolation, migrate, openDb, readFirst, rollbackAll, type Db } from '../../server/lib/db';
+import { signUp, startTestApp, withQueries, type TestApp } from '../support/app';
 
 let sw: TestApp;
 
@@ -100,6 +100,83 @@ describe('the migrations', () => {
       await db.destroy();
       await empty.drop();
     }
+  });
+});
+
+describe(`readFirst, the reads every signed-in request makes (${process.env.DATABASE_URL ? 'PostgreSQL: through Knex' : 'SQLite: on its read-only connection'})`, () => {
+  const byKnex = <T>(query: ReturnType<Db>) => query.first() as Promise<T | undefined>;
+
+  it('answers what Knex answers: a row, no row, a left join without a match, Date and boolean bindings', async () => {
+    const db = sw.db;
+    const user = await db('users').where({ email: 'numbers-one@example.test' }).first('id');
+    const shapes = [
+      () => db('users').where({ id: user.id }).select('id', 'email', 'name', 'email_notices', 'session_epoch'),
+      () => db('users').where({ id: 987_654 }).select('id'),
+      () =>
+        db('memberships as m')
+          .leftJoin('clients as c', function () {
+            this.on('c.studio_id', '=', 'm.studio_id').andOn('c.user_id', '=', 'm.user_id');
+          })
+          .where({ 'm.user_id': user.id })
+          .select('m.role', 'c.id as client_id'),
+      () => db('users').where({ email_notices: true }).where('created_at', '<', new Date('2999-01-01T00:00:00Z').toISOString()).orderBy('id').select('id', 'email'),
+      () => db('users').where({ email_notices: false }).select('id'),
+    ];
+    for (const shape of shapes) expect(await readFirst(db, shape())).toEqual(await byKnex(shape()));
+    expect(await readFirst(db, shapes[1]())).toBeUndefined();
+    expect(await readFirst<{ client_id: unknown }>(db, shapes[2]())).toMatchObject({ role: 'owner', client_id: null });
+  });
+
+  it("is seen by Knex's query listeners, as the query counts and plans need", async () => {
+    const { sql } = await withQueries(sw.db, () => readFirst(sw.db, sw.db('studios').where({ id: 1 }).select('schedule_version')));
+    expect(sql).toHaveLength(1);
+    expect(sql[0]).toMatch(/^select .schedule_version. from .studios. where .id. = /);
+  });
+
+  it('reads what is committed: not the rows of a transaction still open, and them once it commits', async () => {
+    const db = sw.db;
+    const who = () => readFirst<{ name: string }>(db, db('users').where({ email: 'numbers-two@example.test' }).select('name'));
+    const before = (await who())!.name;
+    let release!: () => void;
+    const held = new Promise<void>((r) => (release = r));
+    let written!: () => void;
+    const wrote = new Promise<void>((r) => (written = r));
+    const transaction = db.transaction(async (trx) => {
+      await trx('users').where({ email: 'numbers-two@example.test' }).update({ name: 'Renamed inside' });
+      written();
+      await held;
+    });
+    await wrote;
+    // On SQLite the transaction holds Knex's one connection: through Knex this read would wait for it.
+    const during = await Promise.race([who(), new Promise<'waited'>((r) => setTimeout(() => r('waited'), 2_000))]);
+    release();
+    await transaction;
+    expect(during).toEqual({ name: before });
+    expect(await who()).toEqual({ name: 'Renamed inside' });
+  });
+
+  it.skipIf(!!process.env.DATABASE_URL)('closes its connection with the database', async () => {
+    const dir = fs.mkdtempSync(path.join(os.tmpdir(), 'sablework-reader-'));
+    const file = path.join(dir, 'sablework.sqlite');
+    const handles = () => fs.readdirSync('/proc/self/fd').filter((fd) => {
+      try {
+        return fs.readlinkSync(`/proc/self/fd/${fd}`) === file;
+      } catch {
+        return false; // closed while listed
+      }
+    }).length;
+    const db = openDb({ dataDir: dir });
+    try {
+      await db.raw('create table t (id integer primary key, v text)');
+      await db('t').insert({ id: 1, v: 'one' });
+      const withWriter = handles();
+      expect(await readFirst(db, db('t').where({ id: 1 }).select('v'))).toEqual({ v: 'one' });
+      expect(handles()).toBe(withWriter + 1);
+    } finally {
+      await db.destroy();
+    }
+    expect(handles()).toBe(0);
+    fs.rmSync(dir, { recursive: true, force: true });
   });
 });
 

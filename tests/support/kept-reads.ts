@@ -28,3 +28,12 @@ export function bothClocks(apps: () => Clocked[]) {
     advance: (ms: number) => apps().forEach((a) => a.clock.advance(ms)),
   };
 }
+
+/** An identifier as SQLite (`x`) or PostgreSQL ("x") quotes it. */
+const q = '[`"]';
+/**
+ * The reads every signed-in studio request makes before its own (server/lib/db.ts readFirst): its session, its
+ * person and its membership. What a kept read's test counts beyond these (and the version) is the list itself.
+ */
+const floorPatterns = [`${q}sessions${q}`, `^select [^()]* from ${q}users${q} where ${q}id${q} = `, `from ${q}memberships${q} as ${q}m${q}`].map((p) => new RegExp(p));
+export const isFloorRead = (sql: string) => floorPatterns.some((p) => p.test(sql));

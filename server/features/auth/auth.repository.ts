@@ -1,13 +1,18 @@
-import type { Db } from '../../lib/db';
+import { readFirst, type Db } from '../../lib/db';
 
 export type UserRow = { id: number; email: string; name: string; password_hash: string; email_notices: boolean | number; session_epoch: number };
 
-export const toUser = (r: UserRow) => ({ id: r.id, email: r.email, name: r.name, emailNotices: Boolean(r.email_notices) });
+/** What a request's session needs of its person. */
+export type SessionUserRow = Pick<UserRow, 'id' | 'email' | 'name' | 'email_notices' | 'session_epoch'>;
+
+export const toUser = (r: SessionUserRow) => ({ id: r.id, email: r.email, name: r.name, emailNotices: Boolean(r.email_notices) });
 
 export function authRepository(db: Db) {
   return {
     findUserByEmail: (email: string, trx: Db = db) => trx<UserRow>('users').where({ email: email.toLowerCase() }).first(),
     findUserById: (id: number, trx: Db = db) => trx<UserRow>('users').where({ id }).first(),
+    /** The signed-in person of a request, read as every signed-in request does (readFirst: outside Knex's pool on SQLite). */
+    sessionUser: (id: number) => readFirst<SessionUserRow>(db, db('users').where({ id }).select('id', 'email', 'name', 'email_notices', 'session_epoch')),
     async createUser(u: { email: string; name: string; passwordHash: string; now: string }, trx: Db = db) {
       const [row] = await trx('users')
         .insert({ email: u.email.toLowerCase(), name: u.name, password_hash: u.passwordHash, email_notices: true, created_at: u.now, updated_at: u.now })

@@ -1,14 +1,14 @@
 /**
  * The two bare servers `npm run bench` compares the app with, run in a process of their own (as the app's
  * server is), so neither shares an event loop with autocannon: a bare Express "hello", and a bare Express
- * with the app's own session store (server/lib/session-store.ts) on a SQLite file with the app's settings.
+ * with the app's own session store (server/lib/session-store.ts) on a SQLite file opened as the app opens its own.
  * Started as `tsx tests/bench/support/bare-servers.ts <dir>`; prints one JSON line with both ports.
  */
 import path from 'node:path';
 import type net from 'node:net';
 import express from 'express';
 import session from 'express-session';
-import knexFactory from 'knex';
+import { openDb } from '../../../server/lib/db';
 import { createSessionStore } from '../../../server/lib/session-store';
 
 const dir = process.argv[2];
@@ -17,21 +17,9 @@ if (!dir) throw new Error('usage: bare-servers.ts <dir>');
 const hello = express();
 hello.get('/', (_req, res) => res.json({ hello: 'world' }));
 
-// The same SQLite settings as the app's connection (server/lib/db.ts), so the comparison is of the stacks, not of fsync.
-const knex = knexFactory({
-  client: 'better-sqlite3',
-  connection: { filename: path.join(dir, 'bare.sqlite') },
-  useNullAsDefault: true,
-  pool: {
-    min: 1,
-    max: 1,
-    afterCreate(conn: { pragma: (s: string) => unknown }, done: (err: Error | null, conn: unknown) => void) {
-      conn.pragma('journal_mode = WAL');
-      conn.pragma('synchronous = NORMAL');
-      done(null, conn);
-    },
-  },
-});
+// The app's own SQLite connection (server/lib/db.ts: its settings, its prepared statements and its read-only
+// connection for the session read), on a file of its own, so the comparison is of the stacks, not of the database.
+const knex = openDb({ dataDir: path.join(dir, 'bare') });
 await knex.schema.dropTableIfExists('sessions');
 await knex.schema.createTable('sessions', (t) => {
   t.string('sid', 255).primary();
