@@ -49,8 +49,9 @@ function capacityHours(sf: StudioForecast, painterId: number, from: string, to: 
   }
 }
 
-/** Rows an owner's home holds, for the cache's bound: its lists' entries and one for the rest. */
-const weigh = (d: OwnerDashboard) =>
+/** Rows a home holds, for the cache's bound: its lists' entries and one for the rest. */
+const weigh = (d: Dashboard) => (d.role === 'owner' ? weighOwner(d) : d.role === 'client' ? 1 + d.commissions.length : 1 + d.todayStages.length + d.weekStages.length);
+const weighOwner = (d: OwnerDashboard) =>
   1 +
   d.byStatus.length +
   d.utilisation.length +
@@ -61,18 +62,18 @@ const weigh = (d: OwnerDashboard) =>
   (d.myBench ? d.myBench.todayStages.length + d.myBench.weekStages.length : 0);
 
 /**
- * The home page of each role. The owner's is kept in memory (`cacheRows`: rows of its lists held across
- * studios and owners, default 20,000; 0: no cache) per studio, owner and minute under the books version
- * (server/lib/version-cache.ts `booksVersion`: schedule_version + books_version, moved by database
- * triggers with every write to a row it reads: migrations/20270205120000-books-version.ts lists them).
- * Everything in it that depends on the clock follows from the minute: the forecast is worked out as of the
- * start of the minute (schedule.service.ts), and "today" and "this month" are that minute's in the
- * studio's zone. While neither moves, a request reads only the version. The painter's and the client's
- * homes are read fresh (from the kept forecast).
+ * The home page of each role, kept in memory (`cacheRows`: rows of their lists held across studios and
+ * people, default 20,000; 0: no cache) per studio, person (the client record for a client) and minute under
+ * the books version (server/lib/version-cache.ts `booksVersion`: schedule_version + books_version, moved by
+ * database triggers with every write to a row they read: the commissions, figures and stages through the
+ * schedule version's triggers, the money tables and running timers through the books version's,
+ * migrations/20270205120000-books-version.ts). Everything in them that depends on the clock follows from the
+ * minute: the forecast is worked out as of the start of the minute (schedule.service.ts), and "today" and
+ * "this month" are that minute's in the studio's zone. While neither moves, a request reads only the version.
  */
 export function dashboardService(deps: { repo: DashboardRepository; schedule: ScheduleService; reports: ReportsService; clock: Clock; cacheRows?: number }) {
   const { repo, schedule, reports, clock } = deps;
-  const keptOwner = keptReads<OwnerDashboard, { version: number }>({ version: repo.version, maxWeight: deps.cacheRows ?? 20_000, weigh });
+  const keptHome = keptReads<Dashboard, { version: number }>({ version: repo.version, maxWeight: deps.cacheRows ?? 20_000, weigh });
 
   function blocksOf(sf: StudioForecast): WorkBlock[] {
     return sf.forecast.commissions.flatMap((c) => c.figures.flatMap((f) => f.blocks));
@@ -241,13 +242,12 @@ export function dashboardService(deps: { repo: DashboardRepository; schedule: Sc
 
   return {
     async get(actor: Actor): Promise<Dashboard> {
-      if (actor.role === 'owner') {
-        const minute = Math.floor(clock.now().getTime() / MINUTE_MS);
-        return keptOwner(actor.studioId, `owner|${actor.userId}|${minute}`, async () => owner(actor, await schedule.run(actor.studioId)));
-      }
-      const sf = await schedule.run(actor.studioId);
-      if (actor.role === 'painter') return { role: 'painter', ...(await bench(actor.studioId, actor.userId, sf)) };
-      if (actor.role === 'client') return client(actor, sf);
+      const minute = Math.floor(clock.now().getTime() / MINUTE_MS);
+      const home = (key: string, read: (sf: StudioForecast) => Promise<Dashboard>) =>
+        keptHome(actor.studioId, `${key}|${minute}`, async () => read(await schedule.run(actor.studioId)));
+      if (actor.role === 'owner') return home(`owner|${actor.userId}`, (sf) => owner(actor, sf));
+      if (actor.role === 'painter') return home(`painter|${actor.userId}`, async (sf) => ({ role: 'painter', ...(await bench(actor.studioId, actor.userId, sf)) }));
+      if (actor.role === 'client') return home(`client|${actor.clientId}`, (sf) => client(actor, sf));
       throw errors.forbidden();
     },
   };
