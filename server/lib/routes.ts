@@ -1,4 +1,5 @@
 import type { Request, RequestHandler, Response, Router } from 'express';
+import { keptJson } from './kept-json';
 import { isPolicy, type DeclaredPolicy } from './policy';
 
 type Method = 'get' | 'post' | 'put' | 'patch' | 'delete';
@@ -32,38 +33,6 @@ export const json =
       else res.status(status).json(body);
     }
   };
-
-/** The UTF-8 JSON of frozen values, by identity (see keptJson). */
-const keptBytes = new WeakMap<object, Buffer>();
-const isObject = (v: unknown): v is object => typeof v === 'object' && v !== null;
-function bytesOf(v: object): Buffer {
-  let bytes = keptBytes.get(v);
-  if (!bytes) keptBytes.set(v, (bytes = Buffer.from(JSON.stringify(v))));
-  return bytes;
-}
-
-/**
- * The body as UTF-8 JSON when it is, or holds at its top level, a value kept frozen (keptReads freezes what it
- * keeps: server/lib/version-cache.ts), else undefined. A frozen value cannot change, so its JSON is written out
- * once and kept beside it for as long as it is kept itself (a WeakMap): an unchanged kept list is not
- * serialised again on every request. The bytes are those JSON.stringify gives: keys in their order, properties
- * whose value JSON leaves out (undefined, functions, symbols) left out.
- */
-export function keptJson(body: unknown): Buffer | undefined {
-  if (!isObject(body)) return undefined;
-  if (Object.isFrozen(body)) return bytesOf(body);
-  if (Array.isArray(body) || Object.getPrototypeOf(body) !== Object.prototype || 'toJSON' in body) return undefined;
-  const entries = Object.entries(body);
-  if (!entries.some(([, v]) => isObject(v) && Object.isFrozen(v))) return undefined;
-  const parts: Buffer[] = [];
-  for (const [k, v] of entries) {
-    const text = isObject(v) && Object.isFrozen(v) ? bytesOf(v) : JSON.stringify(v);
-    if (text === undefined) continue;
-    parts.push(Buffer.from(`${parts.length ? ',' : '{'}${JSON.stringify(k)}:`), typeof text === 'string' ? Buffer.from(text) : text);
-  }
-  parts.push(Buffer.from(parts.length ? '}' : '{}'));
-  return Buffer.concat(parts);
-}
 
 /** The parsed params/query from validate(). */
 export const params = <T = Record<string, number>>(res: Response) => res.locals.params as T;

@@ -1,8 +1,8 @@
 import { describe, expect, it } from 'vitest';
 import { deepFreeze } from '../../server/lib/deep-freeze';
-import { keptJson } from '../../server/lib/routes';
+import { holdsKept, keptJson } from '../../server/lib/kept-json';
 
-// keptJson (server/lib/routes.ts): the JSON of a kept (frozen) answer, or of an answer holding kept values at its
+// keptJson (server/lib/kept-json.ts): the JSON of a kept (frozen) answer, or of an answer holding kept values at its
 // top level, written out once per value. Whatever it writes must be the bytes JSON.stringify gives for the body.
 
 const sample = () => ({
@@ -52,5 +52,46 @@ describe('keptJson', () => {
     keptJson({ counted, other: 1 });
     expect(reads).toBe(1);
     expect(a.toString()).toBe('{"items":[{"id":1}],"total":1}');
+  });
+});
+
+describe('keptJson on an answer marked holdsKept (put together per request around kept values)', () => {
+  it('finds kept values at any depth and writes the rest as JSON.stringify does', () => {
+    const cards = deepFreeze(sample().items);
+    const build = () =>
+      holdsKept({
+        columns: [
+          { key: 'prime', name: 'Prime', cards: [cards[0], { ...cards[1], extra: [undefined, () => 1, Symbol('s'), Number.POSITIVE_INFINITY, null] }] },
+          { key: 'empty', name: 'Empty', cards: [] },
+          { key: 'done', name: 'Done', cards: [cards[1], cards[0]], note: undefined },
+        ],
+        total: 3,
+        when: new Date('2026-12-02T10:00:00Z'),
+        left: { toJSON: () => undefined },
+        nested: [[cards[0]], [], [[{ deep: cards[1] }]]],
+      });
+    const body = build();
+    expect(keptJson(body)!.toString('utf8')).toBe(JSON.stringify(body));
+    // the mark is not part of the answer
+    expect(Object.keys(body)).toEqual(['columns', 'total', 'when', 'left', 'nested']);
+  });
+
+  it('writes a kept value found deep inside once', () => {
+    let reads = 0;
+    const card = Object.freeze(Object.defineProperty({}, 'id', { enumerable: true, get: () => ++reads }));
+    const first = keptJson(holdsKept({ columns: [{ cards: [card] }] }))!.toString();
+    const second = keptJson(holdsKept({ columns: [{ cards: [card, card] }] }))!.toString();
+    expect(reads).toBe(1);
+    expect(first).toBe('{"columns":[{"cards":[{"id":1}]}]}');
+    expect(second).toBe('{"columns":[{"cards":[{"id":1},{"id":1}]}]}');
+  });
+
+  it('without the mark, looks no deeper than the top level', () => {
+    let reads = 0;
+    const card = Object.freeze(Object.defineProperty({}, 'id', { enumerable: true, get: () => ++reads }));
+    expect(keptJson({ columns: [{ cards: [card] }] })).toBeUndefined();
+    expect(keptJson({ part: deepFreeze({ a: 1 }), columns: [{ cards: [card] }] })!.toString()).toBe('{"part":{"a":1},"columns":[{"cards":[{"id":1}]}]}');
+    keptJson({ part: deepFreeze({ a: 1 }), columns: [{ cards: [card] }] });
+    expect(reads).toBe(2); // written by JSON.stringify each time
   });
 });

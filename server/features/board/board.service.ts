@@ -2,6 +2,7 @@ import { progressFromTotals, waitUntil } from '../../../shared/commission-lifecy
 import { sortHazards } from '../../../shared/hazards';
 import type { Board, BoardCard, BoardQuery } from '../../../shared/schemas/commissions';
 import type { Clock } from '../../lib/clock';
+import { holdsKept } from '../../lib/kept-json';
 import { keptReads } from '../../lib/version-cache';
 import type { StudioSetupService } from '../studio-setup/studio-setup.service';
 import { parseKeys } from '../studio-setup/studio-setup.repository';
@@ -97,7 +98,8 @@ export function boardService(deps: { repo: BoardRepository; setup: StudioSetupSe
         if (!columns.has(c.column)) columns.set(c.column, { key: c.column, name: c.columnName, cards: [] });
         columns.get(c.column)!.cards.push(card);
       }
-      return { columns: [...columns.values(), { key: 'done', name: 'Done', cards: done }], total: k.total, limit: q.limit, offset: q.offset };
+      // the cards without a wait are the kept ones: their JSON is kept with them (server/lib/kept-json.ts)
+      return holdsKept({ columns: [...columns.values(), { key: 'done', name: 'Done', cards: done }], total: k.total, limit: q.limit, offset: q.offset });
     },
   };
 }
