@@ -111,6 +111,12 @@ export function paintsRepository(db: Db) {
         trx('recipe_step_paints as sp').join('recipe_steps as s', 's.id', 'sp.step_id').whereRaw('sp.studio_id = p.studio_id and sp.paint_id = p.id').countDistinct('s.recipe_id').as('recipe_count'),
       );
   return {
+    /**
+     * The studio's lists version (migrations/20270207120000-lists-version.ts: moved with every write to a row
+     * the rack, its CSV or the recipe list reads); undefined when there is no such studio.
+     */
+    listsVersion: (studioId: number) =>
+      (db('studios').where({ id: studioId }).first('lists_version') as Promise<{ lists_version: number | string } | undefined>).then((r) => (r ? Number(r.lists_version) : undefined)),
     /** The paints that match the filter, by name; one page of them when `page` is given. */
     async list(studioId: number, q: PaintFilter = {}, page?: PageParams) {
       const qb = filtered(base(studioId), q);

@@ -5,13 +5,16 @@ import {
   NEEDS_COLOUR_MESSAGE,
   type CreatePaintInput,
   type ImportReport,
+  type Paint,
   type PaintListQuery,
   type PaintMatchView,
   type UpdatePaintInput,
 } from '../../../shared/schemas/paints';
+import type { Page } from '../../../shared/schemas/common';
 import { iso, type Clock } from '../../lib/clock';
 import { isUniqueViolation, type Db } from '../../lib/db';
 import { pageOf } from '../../lib/page';
+import { keptReads } from '../../lib/version-cache';
 import { errors } from '../../lib/errors';
 import { parseOrThrow } from '../../lib/validate';
 import { parsePaintsCsv, paintsToCsv } from './paints.csv';
@@ -20,9 +23,20 @@ import { matchKey, toPaint, toPaintRef, type PaintRow, type PaintsRepository } f
 const duplicate = () => errors.field('name', 'The rack already has a paint of this name from this maker.');
 const round2 = (n: number) => Math.round(n * 100) / 100;
 
-export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clock }) {
+/** Rows (paints, or lines of the CSV) the kept rack answers may hold across studios and queries, per store. */
+export const PAINT_LIST_CACHE_ROWS = 20_000;
+
+/**
+ * The rack's page and its CSV are kept per studio, lists version and query (`cacheRows` rows at most per
+ * store; 0 turns it off): reading and building 200 paints was nearly all of their cost, on every request.
+ */
+export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clock; cacheRows?: number }) {
   const { db, repo, clock } = deps;
   const now = () => iso(clock.now());
+  const maxWeight = deps.cacheRows ?? PAINT_LIST_CACHE_ROWS;
+  const version = (studioId: number) => repo.listsVersion(studioId);
+  const keptPages = keptReads<Page<Paint>>({ version, maxWeight, weigh: (p) => p.items.length + 1 });
+  const keptCsv = keptReads<{ text: string; rows: number }>({ version, maxWeight, weigh: (c) => c.rows + 1 });
 
   async function get(studioId: number, id: number) {
     const row = await repo.get(studioId, id);
@@ -50,9 +64,12 @@ export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clo
   return {
     get,
     rack,
-    async list(studioId: number, q: PaintListQuery) {
-      const { items, total } = await repo.list(studioId, q, q);
-      return pageOf(items, total ?? 0, q);
+    list(studioId: number, q: PaintListQuery): Promise<Page<Paint>> {
+      const key = JSON.stringify([q.q ?? null, q.type ?? null, q.stock ?? null, q.limit, q.offset]);
+      return keptPages(studioId, key, async () => {
+        const { items, total } = await repo.list(studioId, q, q);
+        return pageOf(items, total ?? 0, q);
+      });
     },
     /** What recipes show of their paints, by id; ids not on this studio's rack are simply absent. */
     async refsByIds(studioId: number, ids: number[]) {
@@ -144,9 +161,13 @@ export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clo
       return { created, updated, skipped, notes: parsed.notes };
     },
 
-    async exportCsv(studioId: number) {
-      const rows = await repo.exportRows(studioId);
-      return paintsToCsv(rows.map((r) => ({ name: r.name, maker: r.maker, range: r.range_name, type: r.type, finish: r.finish, hex: r.hex, stock: r.stock, lowStockThreshold: r.low_stock_threshold, notes: r.notes })));
+    async exportCsv(studioId: number): Promise<string> {
+      const csv = await keptCsv(studioId, 'csv', async () => {
+        const rows = await repo.exportRows(studioId);
+        const text = paintsToCsv(rows.map((r) => ({ name: r.name, maker: r.maker, range: r.range_name, type: r.type, finish: r.finish, hex: r.hex, stock: r.stock, lowStockThreshold: r.low_stock_threshold, notes: r.notes })));
+        return { text, rows: rows.length };
+      });
+      return csv.text;
     },
 
     async nearest(studioId: number, hex: string, k: number) {
