@@ -101,6 +101,12 @@ export function recipesRepository(db: Db) {
       .orderBy(['s.recipe_id', 's.position', 's.id', 'sp.position']);
 
   return {
+    /**
+     * The studio's lists version (migrations/20270207120000-lists-version.ts: moved with every write to a
+     * recipe, step, step paint, paint or scheme's recipe); undefined when there is no such studio.
+     */
+    listsVersion: (studioId: number) =>
+      (db('studios').where({ id: studioId }).first('lists_version') as Promise<{ lists_version: number | string } | undefined>).then((r) => (r ? Number(r.lists_version) : undefined)),
     /** One page of the recipes, by name, with what a summary shows (no description). */
     list(studioId: number, q: RecipeListQuery) {
       const qb = db('recipes as r')

@@ -18,6 +18,11 @@ import { pageOf } from '../../lib/page';
 import type { PaintsService } from '../paints/paints.service';
 import type { RecipeListRow, RecipeRow, RecipesRepository, StepRow } from './recipes.repository';
 import { pushTo } from '../../lib/group-by';
+import { keptReads } from '../../lib/version-cache';
+import type { Page } from '../../../shared/schemas/common';
+
+/** Recipes the kept list pages may hold across studios and queries. */
+export const RECIPE_LIST_CACHE_ROWS = 20_000;
 
 const round2 = (n: number) => Math.round(n * 100) / 100;
 
@@ -58,9 +63,14 @@ function stepView(step: StepRow, paints: StepPaint[]): RecipeStep {
   };
 }
 
-export function recipesService(deps: { repo: RecipesRepository; paints: Pick<PaintsService, 'refsByIds'>; clock: Clock }) {
+/**
+ * A page of the list is kept per studio, lists version and query (`cacheRows` recipes at most; 0 turns it
+ * off): its steps' swatches, mixes and hazards were worked out from the same rows on every request.
+ */
+export function recipesService(deps: { repo: RecipesRepository; paints: Pick<PaintsService, 'refsByIds'>; clock: Clock; cacheRows?: number }) {
   const { repo, paints, clock } = deps;
   const now = () => iso(clock.now());
+  const keptPages = keptReads<Page<RecipeSummary>>({ version: (studioId) => repo.listsVersion(studioId), maxWeight: deps.cacheRows ?? RECIPE_LIST_CACHE_ROWS, weigh: (p) => p.items.length + 1 });
 
   /** Recipes from their rows and their steps in order, with each step's paints (by step id). */
   function assemble(rows: (RecipeListRow & Partial<Pick<RecipeRow, 'description'>>)[], steps: StepRow[], paintsByStep: ReadonlyMap<number, StepPaint[]>): Recipe[] {
@@ -163,9 +173,11 @@ export function recipesService(deps: { repo: RecipesRepository; paints: Pick<Pai
     get,
     hydrate,
     summarise,
-    async list(studioId: number, q: RecipeListQuery) {
-      const { rows, total } = await repo.list(studioId, q);
-      return pageOf(await summariesOf(studioId, rows), total, q);
+    list(studioId: number, q: RecipeListQuery): Promise<Page<RecipeSummary>> {
+      return keptPages(studioId, JSON.stringify([q.q ?? null, q.limit, q.offset]), async () => {
+        const { rows, total } = await repo.list(studioId, q);
+        return pageOf(await summariesOf(studioId, rows), total, q);
+      });
     },
     /** Summaries of the given recipes, by id (for schemes). */
     async summaries(studioId: number, ids: number[]) {
