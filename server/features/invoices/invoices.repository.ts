@@ -135,6 +135,15 @@ export function invoicesRepository(db: Db) {
     trx('invoices as i').join('commissions as c', 'c.id', 'i.commission_id').join('clients as cl', 'cl.id', 'i.client_id').where('i.studio_id', studioId);
 
   return {
+    /**
+     * The studio's lists version (migrations/20270207120000-lists-version.ts: moved with every write to an
+     * invoice, payment, payment event, commission title, client name or the studio's zone) and its zone;
+     * undefined when there is no such studio.
+     */
+    listsVersion: (studioId: number) =>
+      (db('studios').where({ id: studioId }).first('lists_version', 'timezone') as Promise<{ lists_version: number | string; timezone: string } | undefined>).then((r) =>
+        r ? { version: Number(r.lists_version), timeZone: r.timezone } : undefined,
+      ),
     studio: (studioId: number, trx: Db = db) =>
       trx('studios').where({ id: studioId }).first('id', 'name', 'timezone', 'currency') as Promise<{ id: number; name: string; timezone: string; currency: string } | undefined>,
     commission: (studioId: number, commissionId: number, trx: Db = db) =>

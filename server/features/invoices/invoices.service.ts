@@ -25,9 +25,13 @@ import { AppError, errors } from '../../lib/errors';
 import type { Mailer } from '../../lib/mail/mailer';
 import { templates } from '../../lib/mail/templates';
 import type { Member } from '../../lib/policy';
-import { invoiceCsvChunks } from './invoices.csv';
+import { csvChunks, EXPORT_PAGE_ROWS, invoiceCsvPage, type CsvPage } from './invoices.csv';
 import type { CheckoutRow, InvoiceRow, InvoicesRepository, IssueRow, PaymentRow } from './invoices.repository';
 import { groupBy } from '../../lib/group-by';
+import { keptReads } from '../../lib/version-cache';
+
+/** Rows (invoices, or invoices of the CSV) the kept list pages and CSV pages may hold across studios and queries, per store. */
+export const INVOICE_LIST_CACHE_ROWS = 20_000;
 
 export type Actor = Member & { userId: number };
 /** Who causes a change: a person, or the payment service (userId null). */
@@ -51,6 +55,8 @@ export type InvoiceDeps = {
   bookCommission: (trx: Db, by: By, commissionId: number) => Promise<void>;
   /** cancels through the lifecycle (its own transaction) */
   cancelCommission: (actor: Actor, commissionId: number, reason: string) => Promise<unknown>;
+  /** Rows the kept list and CSV pages may hold per store (default INVOICE_LIST_CACHE_ROWS); 0 turns them off. */
+  cacheRows?: number;
 };
 
 const DEPOSIT_DUE_DAYS = 7;
@@ -119,6 +125,16 @@ export function invoicesService(deps: InvoiceDeps) {
   }
   const todayIn = (timezone: string) => localDateOf(clock.now().getTime(), timezone);
 
+  /**
+   * The invoice list and the CSV's pages are kept per studio, lists version and query: reading and building
+   * the same invoices was nearly all of their cost, on every request. A list page's key names the studio's day
+   * (an invoice is overdue from the day after its due date), and a CSV page's the studio's zone.
+   */
+  const maxWeight = deps.cacheRows ?? INVOICE_LIST_CACHE_ROWS;
+  const version = (studioId: number) => repo.listsVersion(studioId);
+  const keptLists = keptReads<Page<Invoice>, { version: number; timeZone: string }>({ version, maxWeight, weigh: (p) => p.items.length + 1 });
+  const keptCsvPages = keptReads<CsvPage, { version: number; timeZone: string }>({ version, maxWeight, weigh: (p) => p.rows + 1 });
+
   function view(r: InvoiceRow, pays: ReadonlyMap<number | null, PaymentRow[]>, issues: ReadonlyMap<number | null, IssueRow[]>, forClient: boolean, today: string): Invoice {
     const balanceDue = balanceDueOf(r);
     return {
@@ -156,10 +172,11 @@ export function invoicesService(deps: InvoiceDeps) {
     };
   }
 
-  async function views(studioId: number, rows: InvoiceRow[], forClient: boolean, trx: Db = db): Promise<Invoice[]> {
+  /** `day`: the studio's day the views are for, when the caller worked it out already (else from the studio's zone now). */
+  async function views(studioId: number, rows: InvoiceRow[], forClient: boolean, trx: Db = db, day?: string): Promise<Invoice[]> {
     const ids = rows.map((r) => r.id);
     const [pays, issues, s] = await Promise.all([repo.payments(studioId, ids, trx), forClient ? Promise.resolve([]) : repo.issues(studioId, ids), studioOf(studioId, trx)]);
-    const today = todayIn(s.timezone);
+    const today = day ?? todayIn(s.timezone);
     const paysBy = groupBy(pays, (p) => p.invoice_id);
     const issuesBy = groupBy(issues, (i) => i.invoice_id);
     return rows.map((r) => view(r, paysBy, issuesBy, forClient, today));
@@ -450,10 +467,18 @@ export function invoicesService(deps: InvoiceDeps) {
   return {
     kick: () => mailer.kick(),
 
-    async list(actor: Member, q: InvoiceListQuery): Promise<Page<Invoice>> {
+    list(actor: Member, q: InvoiceListQuery): Promise<Page<Invoice>> {
       const forClient = actor.role === 'client';
-      const { rows, total } = await repo.list(actor.studioId, { ...q, onlyClientId: forClient ? (actor.clientId ?? -1) : undefined, hideDrafts: forClient });
-      return { items: await views(actor.studioId, rows, forClient), total, limit: q.limit, offset: q.offset };
+      const onlyClientId = forClient ? (actor.clientId ?? -1) : undefined;
+      let day: string | undefined;
+      const key = (at: { timeZone: string }) => {
+        day = todayIn(at.timeZone);
+        return JSON.stringify([day, onlyClientId ?? null, q.status ?? null, q.kind ?? null, q.clientId ?? null, q.commissionId ?? null, q.q ?? null, q.limit, q.offset]);
+      };
+      return keptLists(actor.studioId, key, async () => {
+        const { rows, total } = await repo.list(actor.studioId, { ...q, onlyClientId, hideDrafts: forClient });
+        return { items: await views(actor.studioId, rows, forClient, db, day), total, limit: q.limit, offset: q.offset };
+      });
     },
 
     async get(actor: Member, id: number) {
@@ -784,9 +809,17 @@ export function invoicesService(deps: InvoiceDeps) {
     },
 
     /** The CSV export's text in chunks, a page of invoices each (invoices.csv.ts); the studio is read first. */
-    async exportCsv(actor: Member, from: string | null, to: string | null) {
-      const s = await studioOf(actor.studioId);
-      return invoiceCsvChunks(repo, { id: actor.studioId, timezone: s.timezone }, from, to);
+    exportCsv(actor: Member, from: string | null, to: string | null) {
+      // Each page of the export is kept on its own (its key names where it starts), so a large export is
+      // kept as far as the cache holds it and still read a page at a time. A page is worked out in the zone
+      // read with its version (uncached: the studio's, read first; an unknown studio fails the first page).
+      return csvChunks((after) => {
+        let zone: string | undefined;
+        const key = (at: { timeZone: string }) => JSON.stringify([(zone = at.timeZone), from, to, after?.issuedAt ?? null, after?.id ?? null, EXPORT_PAGE_ROWS]);
+        return keptCsvPages(actor.studioId, key, async () =>
+          invoiceCsvPage(repo, { id: actor.studioId, timezone: zone ?? (await studioOf(actor.studioId)).timezone }, from, to, after, EXPORT_PAGE_ROWS),
+        );
+      });
     },
   };
 }
