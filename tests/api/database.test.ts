@@ -6,7 +6,7 @@ import os from 'node:os';
 import path from 'node:path';
 import knexFactory from 'knex';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { isUniqueViolation, migrate, openDb, readFirst, rollbackAll, type Db } from '../../server/lib/db';
+import { isUniqueViolation, migrate, openDb, readAll, readFirst, rollbackAll, type Db } from '../../server/lib/db';
 import { signUp, startTestApp, withQueries, type TestApp } from '../support/app';
 
 let sw: TestApp;
@@ -125,6 +125,18 @@ describe(`readFirst, the reads every signed-in request makes (${process.env.DATA
     for (const shape of shapes) expect(await readFirst(db, shape())).toEqual(await byKnex(shape()));
     expect(await readFirst(db, shapes[1]())).toBeUndefined();
     expect(await readFirst<{ client_id: unknown }>(db, shapes[2]())).toMatchObject({ role: 'owner', client_id: null });
+  });
+
+  it('readAll answers the rows Knex answers, in its order, and none as an empty list', async () => {
+    const db = sw.db;
+    const shapes = [
+      () => db('users').whereIn('email', ['numbers-one@example.test', 'numbers-two@example.test']).orderBy('email', 'desc').select('id', 'email', 'email_notices'),
+      () => db('memberships as m').join('studios as s', 's.id', 'm.studio_id').orderBy('s.name').select('m.studio_id as studioId', 's.name as studioName', 'm.role as role'),
+      () => db('users').where({ id: 987_654 }).select('id'),
+    ];
+    for (const shape of shapes) expect(await readAll(db, shape())).toEqual(await shape());
+    expect(await readAll(db, shapes[0]())).toHaveLength(2);
+    expect(await readAll(db, shapes[2]())).toEqual([]);
   });
 
   it("is seen by Knex's query listeners, as the query counts and plans need", async () => {

@@ -1,4 +1,5 @@
-import { readFirst, type Db } from '../../lib/db';
+import type { Role } from '../../../shared/schemas/common';
+import { readAll, readFirst, type Db } from '../../lib/db';
 
 export type UserRow = { id: number; email: string; name: string; password_hash: string; email_notices: boolean | number; session_epoch: number };
 
@@ -21,12 +22,12 @@ export function authRepository(db: Db) {
     },
     updateUser: (id: number, patch: Partial<{ name: string; password_hash: string; email_notices: boolean }>, now: string, trx: Db = db) =>
       trx('users').where({ id }).update({ ...patch, updated_at: now }),
+    /** A signed-in person's studios (readAll: outside Knex's pool on SQLite, as the session's reads). */
     memberships: (userId: number) =>
-      db('memberships as m')
-        .join('studios as s', 's.id', 'm.studio_id')
-        .where('m.user_id', userId)
-        .orderBy('s.name')
-        .select('m.studio_id as studioId', 's.name as studioName', 'm.role as role'),
+      readAll<{ studioId: number; studioName: string; role: Role }>(
+        db,
+        db('memberships as m').join('studios as s', 's.id', 'm.studio_id').where('m.user_id', userId).orderBy('s.name').select('m.studio_id as studioId', 's.name as studioName', 'm.role as role'),
+      ),
 
     countFailures: (key: string, since: string) =>
       db('login_failures').where({ key }).andWhere('at', '>', since).count({ n: '*' }).first().then((r) => Number(r?.n ?? 0)),
