@@ -261,7 +261,7 @@ describe('the kept rack, recipes and invoices after each write they read', () =>
       });
       expect(after, trigger).toBeDefined();
     }
-  });
+  }, 120_000);
 
   it('with any one trigger dropped, its write leaves the kept answers as they were', async () => {
     const db = cached.db;
@@ -286,7 +286,8 @@ describe('the kept rack, recipes and invoices after each write they read', () =>
       await dropListsVersionTriggers(db);
       await createListsVersionTriggers(db);
     }
-  });
+    // 26 rounds of reading every list on both sides: about 15 s on SQLite, longer on PostgreSQL.
+  }, 180_000);
 
   it('the clock moving across the day an invoice falls due, with no write', async () => {
     const due = ids.custom;
