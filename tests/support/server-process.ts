@@ -28,8 +28,22 @@ export class ServerRun {
     private env: Record<string, string> = {},
   ) {}
 
+  /**
+   * Starts the server and waits until it says it listens on its port (its "running at" line, written once the
+   * port is bound) and answers there. A health answer alone could come from another test's server that took the
+   * same free port a moment earlier; a port taken that way makes this run exit, and it is tried again on another.
+   */
   async start() {
-    const port = await freePort();
+    for (let attempt = 1; ; attempt++) {
+      try {
+        return await this.startOn(await freePort());
+      } catch (err) {
+        if (attempt >= 3 || !/EADDRINUSE/.test(this.output)) throw err;
+      }
+    }
+  }
+
+  private async startOn(port: number) {
     this.base = `http://127.0.0.1:${port}`;
     const env: NodeJS.ProcessEnv = {
       ...process.env,
@@ -39,7 +53,8 @@ export class ServerRun {
       PUBLIC_URL: this.base,
       DEMO: 'false',
       BCRYPT_ROUNDS: '4',
-      LOG_LEVEL: 'warn',
+      // info: the "running at" line start() waits for
+      LOG_LEVEL: 'info',
       SMTP_URL: '',
       SESSION_SECRET: 'crash-test-session-secret-0123456789',
       // no key: the local payment fake runs
@@ -48,6 +63,7 @@ export class ServerRun {
     };
     // The child runs on SQLite in DATA_DIR, also in a PostgreSQL run of the API suite.
     delete env.DATABASE_URL;
+    this.output = '';
     this.child = spawn(process.execPath, ['--import', 'tsx', 'server/index.ts'], { cwd: root, detached: true, stdio: ['ignore', 'pipe', 'pipe'], env });
     this.child.stdout!.on('data', (d) => (this.output += d));
     this.child.stderr!.on('data', (d) => (this.output += d));
@@ -56,7 +72,7 @@ export class ServerRun {
     for (;;) {
       if (this.child.exitCode !== null) throw new Error(`server exited early:\n${this.output}`);
       try {
-        if ((await fetch(`${this.base}/api/health`)).ok) return;
+        if (this.output.includes(`Sablework is running at ${this.base}`) && (await fetch(`${this.base}/api/health`)).ok) return;
       } catch {
         /* not up yet */
       }
