@@ -1,6 +1,6 @@
 import type { CommissionStatus } from '../../../shared/commission-lifecycle';
 import type { InvoiceKind, InvoiceLine, InvoiceListQuery, InvoiceStatus, PaymentMethod } from '../../../shared/schemas/invoices';
-import type { Db } from '../../lib/db';
+import { readFirst, type Db } from '../../lib/db';
 
 export type InvoiceRow = {
   id: number;
@@ -141,7 +141,7 @@ export function invoicesRepository(db: Db) {
      * undefined when there is no such studio.
      */
     listsVersion: (studioId: number) =>
-      (db('studios').where({ id: studioId }).first('lists_version', 'timezone') as Promise<{ lists_version: number | string; timezone: string } | undefined>).then((r) =>
+      readFirst<{ lists_version: number | string; timezone: string }>(db, db('studios').where({ id: studioId }).select('lists_version', 'timezone')).then((r) =>
         r ? { version: Number(r.lists_version), timeZone: r.timezone } : undefined,
       ),
     studio: (studioId: number, trx: Db = db) =>

@@ -1,6 +1,6 @@
 import { stockState, type CreatePaintInput, type Finish, type Paint, type PaintFilter, type PaintRef, type PaintType, type UpdatePaintInput } from '../../../shared/schemas/paints';
 import type { Knex } from 'knex';
-import type { Db } from '../../lib/db';
+import { readFirst, type Db } from '../../lib/db';
 import type { PageParams } from '../../../shared/schemas/common';
 import { pageRows } from '../../lib/page';
 
@@ -116,7 +116,7 @@ export function paintsRepository(db: Db) {
      * the rack, its CSV or the recipe list reads); undefined when there is no such studio.
      */
     listsVersion: (studioId: number) =>
-      (db('studios').where({ id: studioId }).first('lists_version') as Promise<{ lists_version: number | string } | undefined>).then((r) => (r ? Number(r.lists_version) : undefined)),
+      readFirst<{ lists_version: number | string }>(db, db('studios').where({ id: studioId }).select('lists_version')).then((r) => (r ? Number(r.lists_version) : undefined)),
     /** The paints that match the filter, by name; one page of them when `page` is given. */
     async list(studioId: number, q: PaintFilter = {}, page?: PageParams) {
       const qb = filtered(base(studioId), q);

@@ -1,6 +1,6 @@
 import type { PaintType } from '../../../shared/schemas/paints';
 import type { Diluent, RecipeInput, RecipeListQuery, RecipeTechnique } from '../../../shared/schemas/recipes';
-import type { Db } from '../../lib/db';
+import { readFirst, type Db } from '../../lib/db';
 import { pageRows } from '../../lib/page';
 
 export type RecipeRow = {
@@ -106,7 +106,7 @@ export function recipesRepository(db: Db) {
      * recipe, step, step paint, paint or scheme's recipe); undefined when there is no such studio.
      */
     listsVersion: (studioId: number) =>
-      (db('studios').where({ id: studioId }).first('lists_version') as Promise<{ lists_version: number | string } | undefined>).then((r) => (r ? Number(r.lists_version) : undefined)),
+      readFirst<{ lists_version: number | string }>(db, db('studios').where({ id: studioId }).select('lists_version')).then((r) => (r ? Number(r.lists_version) : undefined)),
     /** One page of the recipes, by name, with what a summary shows (no description). */
     list(studioId: number, q: RecipeListQuery) {
       const qb = db('recipes as r')
