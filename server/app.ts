@@ -213,8 +213,9 @@ export async function createApp(config: Config) {
   });
 
   // Paint rack, recipes, schemes and reference-photo palettes (photo bytes come through the photos service).
-  const paints = paintsService({ db, repo: paintsRepository(db), clock: config.clock });
-  const recipes = recipesService({ repo: recipesRepository(db), paints, clock: config.clock });
+  // The rack, the recipe list and the invoices are kept in memory under the lists version (listsCacheRows; 0 off).
+  const paints = paintsService({ db, repo: paintsRepository(db), clock: config.clock, cacheRows: config.listsCacheRows });
+  const recipes = recipesService({ repo: recipesRepository(db), paints, clock: config.clock, cacheRows: config.listsCacheRows });
   const schemes = schemesService({ repo: schemesRepository(db), recipes, paints, clock: config.clock });
   const palette = paletteService({ repo: paletteRepository(db), photos, paints, limiter: createLimiter(2), clock: config.clock });
 
@@ -229,6 +230,7 @@ export async function createApp(config: Config) {
     mailer,
     clock: config.clock,
     publicUrl: config.publicUrl,
+    cacheRows: config.listsCacheRows,
     priceTable: (studioId, trx) => priceTables.get(studioId, trx),
     acceptedQuote: (studioId, commissionId, trx) => quotesRepo.accepted(studioId, commissionId, trx),
     // The deposit's confirmed payment books the commission and puts it at the end of the queue.

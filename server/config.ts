@@ -80,6 +80,8 @@ export type Config = {
   commissionListCacheRows?: number;
   /** Rows the in-memory books cache (earnings, actuals, the owner's home) may hold per store (default 20,000); 0 turns it off. */
   booksCacheRows?: number;
+  /** Rows the in-memory caches of the paint rack, the recipe list and the invoices (list and CSV pages) may hold, each (default 20,000); 0 turns them off. */
+  listsCacheRows?: number;
   /** Processes serving HTTP on the port (WORKERS; "auto": one per core). 1: this process serves it alone. */
   workers: number;
   /** Set in a worker process of several (server/lib/workers.ts): what the primary runs for it. */
