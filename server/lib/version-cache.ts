@@ -31,6 +31,9 @@ export const scheduleVersion = (db: Db, studioId: number): Promise<number | unde
     r ? Number(r.schedule_version) : undefined,
   );
 
+/** A version read with the studio's zone, for keys that name a day or month in it. */
+export type VersionInZone = { version: number; timeZone: string };
+
 /**
  * The version of what the books and the owner's home read (server/features/reports/,
  * server/features/dashboard/): `schedule_version` + `books_version` (migrations/20270205120000-books-version.ts
@@ -39,11 +42,21 @@ export const scheduleVersion = (db: Db, studioId: number): Promise<number | unde
  * zone, for keys that depend on the clock in it (the zone is in the same row; changing it moves the
  * schedule version). Undefined when there is no such studio.
  */
-export const booksVersion = (db: Db, studioId: number): Promise<{ version: number; timeZone: string } | undefined> =>
+export const booksVersion = (db: Db, studioId: number): Promise<VersionInZone | undefined> =>
   readFirst<{ schedule_version: number | string; books_version: number | string; timezone: string }>(
     db,
     db('studios').where({ id: studioId }).select('schedule_version', 'books_version', 'timezone'),
   ).then((r) => (r ? { version: Number(r.schedule_version) + Number(r.books_version), timeZone: r.timezone } : undefined));
+
+/**
+ * The version of what the paint rack and its CSV, the recipe list, the invoices and their CSV read
+ * (`lists_version`, moved by migrations/20270207120000-lists-version.ts), with the studio's zone, which the
+ * invoices' keys name. Undefined when there is no such studio.
+ */
+export const listsVersion = (db: Db, studioId: number): Promise<VersionInZone | undefined> =>
+  readFirst<{ lists_version: number | string; timezone: string }>(db, db('studios').where({ id: studioId }).select('lists_version', 'timezone')).then((r) =>
+    r ? { version: Number(r.lists_version), timeZone: r.timezone } : undefined,
+  );
 
 type Entry<V> = { studioId: number; version: number; weight: number; value: Promise<V> };
 

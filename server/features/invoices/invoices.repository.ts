@@ -1,6 +1,7 @@
 import type { CommissionStatus } from '../../../shared/commission-lifecycle';
 import type { InvoiceKind, InvoiceLine, InvoiceListQuery, InvoiceStatus, PaymentMethod } from '../../../shared/schemas/invoices';
-import { readFirst, type Db } from '../../lib/db';
+import type { Db } from '../../lib/db';
+import { listsVersion } from '../../lib/version-cache';
 
 export type InvoiceRow = {
   id: number;
@@ -135,15 +136,8 @@ export function invoicesRepository(db: Db) {
     trx('invoices as i').join('commissions as c', 'c.id', 'i.commission_id').join('clients as cl', 'cl.id', 'i.client_id').where('i.studio_id', studioId);
 
   return {
-    /**
-     * The studio's lists version (migrations/20270207120000-lists-version.ts: moved with every write to an
-     * invoice, payment, payment event, commission title, client name or the studio's zone) and its zone;
-     * undefined when there is no such studio.
-     */
-    listsVersion: (studioId: number) =>
-      readFirst<{ lists_version: number | string; timezone: string }>(db, db('studios').where({ id: studioId }).select('lists_version', 'timezone')).then((r) =>
-        r ? { version: Number(r.lists_version), timeZone: r.timezone } : undefined,
-      ),
+    /** The studio's lists version and zone (server/lib/version-cache.ts). */
+    listsVersion: (studioId: number) => listsVersion(db, studioId),
     studio: (studioId: number, trx: Db = db) =>
       trx('studios').where({ id: studioId }).first('id', 'name', 'timezone', 'currency') as Promise<{ id: number; name: string; timezone: string; currency: string } | undefined>,
     commission: (studioId: number, commissionId: number, trx: Db = db) =>

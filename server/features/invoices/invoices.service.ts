@@ -28,7 +28,7 @@ import type { Member } from '../../lib/policy';
 import { csvChunks, EXPORT_PAGE_ROWS, invoiceCsvPage, type CsvPage } from './invoices.csv';
 import type { CheckoutRow, InvoiceRow, InvoicesRepository, IssueRow, PaymentRow } from './invoices.repository';
 import { groupBy } from '../../lib/group-by';
-import { keptReads } from '../../lib/version-cache';
+import { keptReads, type VersionInZone } from '../../lib/version-cache';
 
 /** Rows (invoices, or invoices of the CSV) the kept list pages and CSV pages may hold across studios and queries, per store. */
 export const INVOICE_LIST_CACHE_ROWS = 20_000;
@@ -132,8 +132,8 @@ export function invoicesService(deps: InvoiceDeps) {
    */
   const maxWeight = deps.cacheRows ?? INVOICE_LIST_CACHE_ROWS;
   const version = (studioId: number) => repo.listsVersion(studioId);
-  const keptLists = keptReads<Page<Invoice>, { version: number; timeZone: string }>({ version, maxWeight, weigh: (p) => p.items.length + 1 });
-  const keptCsvPages = keptReads<CsvPage, { version: number; timeZone: string }>({ version, maxWeight, weigh: (p) => p.rows + 1 });
+  const keptLists = keptReads<Page<Invoice>, VersionInZone>({ version, maxWeight, weigh: (p) => p.items.length + 1 });
+  const keptCsvPages = keptReads<CsvPage, VersionInZone>({ version, maxWeight, weigh: (p) => p.rows + 1 });
 
   function view(r: InvoiceRow, pays: ReadonlyMap<number | null, PaymentRow[]>, issues: ReadonlyMap<number | null, IssueRow[]>, forClient: boolean, today: string): Invoice {
     const balanceDue = balanceDueOf(r);

@@ -1,6 +1,7 @@
 import { stockState, type CreatePaintInput, type Finish, type Paint, type PaintFilter, type PaintRef, type PaintType, type UpdatePaintInput } from '../../../shared/schemas/paints';
 import type { Knex } from 'knex';
-import { readFirst, type Db } from '../../lib/db';
+import type { Db } from '../../lib/db';
+import { listsVersion } from '../../lib/version-cache';
 import type { PageParams } from '../../../shared/schemas/common';
 import { pageRows } from '../../lib/page';
 
@@ -111,12 +112,8 @@ export function paintsRepository(db: Db) {
         trx('recipe_step_paints as sp').join('recipe_steps as s', 's.id', 'sp.step_id').whereRaw('sp.studio_id = p.studio_id and sp.paint_id = p.id').countDistinct('s.recipe_id').as('recipe_count'),
       );
   return {
-    /**
-     * The studio's lists version (migrations/20270207120000-lists-version.ts: moved with every write to a row
-     * the rack, its CSV or the recipe list reads); undefined when there is no such studio.
-     */
-    listsVersion: (studioId: number) =>
-      readFirst<{ lists_version: number | string }>(db, db('studios').where({ id: studioId }).select('lists_version')).then((r) => (r ? Number(r.lists_version) : undefined)),
+    /** The studio's lists version (server/lib/version-cache.ts). */
+    listsVersion: (studioId: number) => listsVersion(db, studioId),
     /** The paints that match the filter, by name; one page of them when `page` is given. */
     async list(studioId: number, q: PaintFilter = {}, page?: PageParams) {
       const qb = filtered(base(studioId), q);

@@ -14,7 +14,7 @@ import type { Page } from '../../../shared/schemas/common';
 import { iso, type Clock } from '../../lib/clock';
 import { isUniqueViolation, type Db } from '../../lib/db';
 import { pageOf } from '../../lib/page';
-import { keptReads } from '../../lib/version-cache';
+import { keptReads, type VersionInZone } from '../../lib/version-cache';
 import { errors } from '../../lib/errors';
 import { parseOrThrow } from '../../lib/validate';
 import { parsePaintsCsv, paintsToCsv } from './paints.csv';
@@ -35,8 +35,8 @@ export function paintsService(deps: { db: Db; repo: PaintsRepository; clock: Clo
   const now = () => iso(clock.now());
   const maxWeight = deps.cacheRows ?? PAINT_LIST_CACHE_ROWS;
   const version = (studioId: number) => repo.listsVersion(studioId);
-  const keptPages = keptReads<Page<Paint>>({ version, maxWeight, weigh: (p) => p.items.length + 1 });
-  const keptCsv = keptReads<{ text: string; rows: number }>({ version, maxWeight, weigh: (c) => c.rows + 1 });
+  const keptPages = keptReads<Page<Paint>, VersionInZone>({ version, maxWeight, weigh: (p) => p.items.length + 1 });
+  const keptCsv = keptReads<{ text: string; rows: number }, VersionInZone>({ version, maxWeight, weigh: (c) => c.rows + 1 });
 
   async function get(studioId: number, id: number) {
     const row = await repo.get(studioId, id);

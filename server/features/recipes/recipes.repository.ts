@@ -1,6 +1,7 @@
 import type { PaintType } from '../../../shared/schemas/paints';
 import type { Diluent, RecipeInput, RecipeListQuery, RecipeTechnique } from '../../../shared/schemas/recipes';
-import { readFirst, type Db } from '../../lib/db';
+import type { Db } from '../../lib/db';
+import { listsVersion } from '../../lib/version-cache';
 import { pageRows } from '../../lib/page';
 
 export type RecipeRow = {
@@ -101,12 +102,8 @@ export function recipesRepository(db: Db) {
       .orderBy(['s.recipe_id', 's.position', 's.id', 'sp.position']);
 
   return {
-    /**
-     * The studio's lists version (migrations/20270207120000-lists-version.ts: moved with every write to a
-     * recipe, step, step paint, paint or scheme's recipe); undefined when there is no such studio.
-     */
-    listsVersion: (studioId: number) =>
-      readFirst<{ lists_version: number | string }>(db, db('studios').where({ id: studioId }).select('lists_version')).then((r) => (r ? Number(r.lists_version) : undefined)),
+    /** The studio's lists version (server/lib/version-cache.ts). */
+    listsVersion: (studioId: number) => listsVersion(db, studioId),
     /** One page of the recipes, by name, with what a summary shows (no description). */
     list(studioId: number, q: RecipeListQuery) {
       const qb = db('recipes as r')

@@ -18,7 +18,7 @@ import { pageOf } from '../../lib/page';
 import type { PaintsService } from '../paints/paints.service';
 import type { RecipeListRow, RecipeRow, RecipesRepository, StepRow } from './recipes.repository';
 import { pushTo } from '../../lib/group-by';
-import { keptReads } from '../../lib/version-cache';
+import { keptReads, type VersionInZone } from '../../lib/version-cache';
 import type { Page } from '../../../shared/schemas/common';
 
 /** Recipes the kept list pages may hold across studios and queries. */
@@ -70,7 +70,7 @@ function stepView(step: StepRow, paints: StepPaint[]): RecipeStep {
 export function recipesService(deps: { repo: RecipesRepository; paints: Pick<PaintsService, 'refsByIds'>; clock: Clock; cacheRows?: number }) {
   const { repo, paints, clock } = deps;
   const now = () => iso(clock.now());
-  const keptPages = keptReads<Page<RecipeSummary>>({ version: (studioId) => repo.listsVersion(studioId), maxWeight: deps.cacheRows ?? RECIPE_LIST_CACHE_ROWS, weigh: (p) => p.items.length + 1 });
+  const keptPages = keptReads<Page<RecipeSummary>, VersionInZone>({ version: (studioId) => repo.listsVersion(studioId), maxWeight: deps.cacheRows ?? RECIPE_LIST_CACHE_ROWS, weigh: (p) => p.items.length + 1 });
 
   /** Recipes from their rows and their steps in order, with each step's paints (by step id). */
   function assemble(rows: (RecipeListRow & Partial<Pick<RecipeRow, 'description'>>)[], steps: StepRow[], paintsByStep: ReadonlyMap<number, StepPaint[]>): Recipe[] {

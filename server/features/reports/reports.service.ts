@@ -6,7 +6,7 @@ import { sizeClassLabels, type PriceTable, type SizeClass } from '../../../share
 import type { ActualsReport, BooksSettings, BooksSettingsInput, CommissionEarnings, EarningsQuery, EarningsReport, MonthEarnings, StageActual } from '../../../shared/schemas/reports';
 import { iso, type Clock } from '../../lib/clock';
 import { errors } from '../../lib/errors';
-import { keptReads } from '../../lib/version-cache';
+import { keptReads, type VersionInZone } from '../../lib/version-cache';
 import type { MoneyMove, ReportsRepository } from './reports.repository';
 
 /** Where the books read the studio's price table (the price-table feature's service in the app). */
@@ -74,7 +74,7 @@ const weigh = (r: ActualsReport | EarningsReport) =>
  */
 export function reportsService(deps: { repo: ReportsRepository; priceTables: PriceTableSource; clock: Clock; cacheRows?: number }) {
   const { repo, priceTables, clock } = deps;
-  const kept = keptReads<ActualsReport | EarningsReport, { version: number; timeZone: string }>({ version: repo.version, maxWeight: deps.cacheRows ?? 20_000, weigh });
+  const kept = keptReads<ActualsReport | EarningsReport, VersionInZone>({ version: repo.version, maxWeight: deps.cacheRows ?? 20_000, weigh });
 
   async function studio(studioId: number) {
     const s = await repo.studio(studioId);
