@@ -67,6 +67,9 @@ export type IssueRow = { id: string; invoice_id: number | null; invoice_number: 
 const n = (v: unknown) => Number(v ?? 0);
 const insertedId = (row: unknown) => (typeof row === 'object' && row !== null ? (row as { id: number }).id : (row as number));
 
+/** What an invoice's amounts are read from, in the list and the CSV alike. */
+const amountColumns = ['i.currency', 'i.lines_json', 'i.tax_inclusive', 'i.tax_label', 'i.tax_id', 'i.subtotal', 'i.tax', 'i.total', 'i.paid', 'i.refunded', 'i.credited'];
+
 const invoiceColumns = [
   'i.id',
   'i.studio_id',
@@ -79,17 +82,7 @@ const invoiceColumns = [
   'i.kind',
   'i.status',
   'i.number',
-  'i.currency',
-  'i.lines_json',
-  'i.tax_inclusive',
-  'i.tax_label',
-  'i.tax_id',
-  'i.subtotal',
-  'i.tax',
-  'i.total',
-  'i.paid',
-  'i.refunded',
-  'i.credited',
+  ...amountColumns,
   'i.note',
   'i.issued_at',
   'i.due_date',
@@ -257,17 +250,7 @@ export function invoicesRepository(db: Db) {
           'i.credit_for',
           'cf.number as credit_for_number',
           'cf.issued_at as credit_for_issued_at',
-          'i.currency',
-          'i.tax_inclusive',
-          'i.tax_label',
-          'i.tax_id',
-          'i.subtotal',
-          'i.tax',
-          'i.total',
-          'i.paid',
-          'i.refunded',
-          'i.credited',
-          'i.lines_json',
+          ...amountColumns,
         )
         .orderBy('i.issued_at')
         .orderBy('i.id')
