@@ -1,15 +1,5 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createListsVersionTriggers, dropListsVersionTriggers, listsVersionTriggers } from '../../migrations/20270207120000-lists-version';
-import { invoicesRepository } from '../../server/features/invoices/invoices.repository';
-import { invoicesService } from '../../server/features/invoices/invoices.service';
-import { paintsRepository } from '../../server/features/paints/paints.repository';
-import { paintsService } from '../../server/features/paints/paints.service';
-import { recipesRepository } from '../../server/features/recipes/recipes.repository';
-import { recipesService } from '../../server/features/recipes/recipes.service';
-import type { Member } from '../../server/lib/policy';
-import { invoiceExportQuery, invoiceListQuery } from '../../shared/schemas/invoices';
-import { paintListQuery } from '../../shared/schemas/paints';
-import { recipeListQuery } from '../../shared/schemas/recipes';
 import { idOf, signInAs, startTestApp, withQueries, type Caller, type TestApp } from '../support/app';
 import { afterEachWrite, bothClocks, isFloorRead } from '../support/kept-reads';
 import { acceptedQuote, commission, invoicesOf, moneyStudios, type Side } from './money-flow';
@@ -19,8 +9,8 @@ import { acceptedQuote, commission, invoicesOf, moneyStudios, type Side } from '
 // invoices/invoices.service.ts; studios.lists_version, moved by migrations/20270207120000-lists-version.ts).
 // Two app instances share one database (one SQLite file, or one PostgreSQL database with DATABASE_URL), as
 // docs/scaling.md runs them: every write goes through either one or straight to the database; the answers of
-// `cached` (its HTTP answers, caches on) are compared with what the same services answer on `fresh`'s
-// connection with their caches off (cacheRows: 0), so those are read from the database every time. After each
+// `cached` (caches on) answers are compared with those of `fresh`, whose lists caches are off
+// (listsCacheRows: 0), so its answers are read from the database every time. After each
 // kind of write the lists read, the cached answers must be the fresh ones, and something else than before
 // (else the write proved nothing). Every trigger has a write straight to the database that only it sees, and
 // with that trigger dropped the cached answer stays as it was: no trigger can go without a test failing.
@@ -46,28 +36,9 @@ const invoiceShapes = () => ['', '?status=open', '?limit=1&offset=1', '?q=marsh'
 const clientInvoiceShapes = ['', '?limit=1'];
 const exportShapes = ['', '?from=2026-03-30&to=2026-03-31', '?to=2026-03-29'];
 
-const params = (shape: string) => Object.fromEntries(new URLSearchParams(shape.slice(1)));
-const roundTrip = (v: unknown) => JSON.parse(JSON.stringify(v));
-
-/** The same services as the app's, on the fresh instance's connection, with their caches off. */
-function uncached(sw: TestApp) {
-  const db = sw.db;
-  const paints = paintsService({ db, repo: paintsRepository(db), clock: sw.clock, cacheRows: 0 });
-  const recipes = recipesService({ repo: recipesRepository(db), paints, clock: sw.clock, cacheRows: 0 });
-  // The list and the CSV use none of the money deps.
-  const invoices = invoicesService({ db, repo: invoicesRepository(db), clock: sw.clock, publicUrl: 'http://sablework.test', cacheRows: 0 } as unknown as Parameters<typeof invoicesService>[0]);
-  return { paints, recipes, invoices };
-}
-let direct: ReturnType<typeof uncached>;
-
-const owner = (s: Side): Member => ({ studioId: s.studioId, role: 'owner', clientId: null });
-const client = (s: Side): Member => ({ studioId: s.studioId, role: 'client', clientId: s.clientId });
-
-async function csvOf(chunks: AsyncIterable<string>) {
-  let text = '';
-  for await (const c of chunks) text += c;
-  return text;
-}
+type Role = 'owner' | 'painter' | 'client';
+/** Each studio's people signed in on each instance. */
+const callers = { cached: {}, fresh: {} } as Record<'cached' | 'fresh', Record<'a' | 'b', Record<Role, Caller>>>;
 
 /** Every list of studio A (owner, painter and client) and of studio B, from one instance. */
 async function lists(on: 'cached' | 'fresh') {
@@ -75,29 +46,17 @@ async function lists(on: 'cached' | 'fresh') {
   for (const s of [a, b]) {
     const S = `/api/studios/${s.studioId}`;
     const tag = s === a ? 'a' : 'b';
-    if (on === 'cached') {
-      const page = async (c: Caller, url: string) => {
-        const r = await ok(c.get(url));
-        return { items: r.body, total: Number(r.headers['x-total-count']) };
-      };
-      for (const q of recipeShapes) out[`${tag} recipes${q}`] = await page(s.painter, `${S}/recipes${q}`);
-      for (const q of paintShapes) out[`${tag} paints${q}`] = await page(s.owner, `${S}/paints${q}`);
-      out[`${tag} paints csv`] = (await ok(s.owner.get(`${S}/paints/export`))).text;
-      for (const q of invoiceShapes()) out[`${tag} invoices${q}`] = (await ok(s.owner.get(`${S}/invoices${q}`))).body;
-      for (const q of clientInvoiceShapes) out[`${tag} client invoices${q}`] = (await ok(s.client.get(`${S}/invoices${q}`))).body;
-      for (const q of exportShapes) out[`${tag} invoices csv${q}`] = (await ok(s.owner.get(`${S}/invoices/export.csv${q}`))).text;
-    } else {
-      const page = (p: { items: unknown[]; total: number }) => ({ items: roundTrip(p.items), total: p.total });
-      for (const q of recipeShapes) out[`${tag} recipes${q}`] = page(await direct.recipes.list(s.studioId, recipeListQuery.parse(params(q))));
-      for (const q of paintShapes) out[`${tag} paints${q}`] = page(await direct.paints.list(s.studioId, paintListQuery.parse(params(q))));
-      out[`${tag} paints csv`] = await direct.paints.exportCsv(s.studioId);
-      for (const q of invoiceShapes()) out[`${tag} invoices${q}`] = roundTrip(await direct.invoices.list(owner(s), invoiceListQuery.parse(params(q))));
-      for (const q of clientInvoiceShapes) out[`${tag} client invoices${q}`] = roundTrip(await direct.invoices.list(client(s), invoiceListQuery.parse(params(q))));
-      for (const q of exportShapes) {
-        const e = invoiceExportQuery.parse(params(q));
-        out[`${tag} invoices csv${q}`] = await csvOf(await direct.invoices.exportCsv(owner(s), e.from ?? null, e.to ?? null));
-      }
-    }
+    const c = callers[on][tag];
+    const page = async (who: Caller, url: string) => {
+      const r = await ok(who.get(url));
+      return { items: r.body, total: Number(r.headers['x-total-count']) };
+    };
+    for (const q of recipeShapes) out[`${tag} recipes${q}`] = await page(c.painter, `${S}/recipes${q}`);
+    for (const q of paintShapes) out[`${tag} paints${q}`] = await page(c.owner, `${S}/paints${q}`);
+    out[`${tag} paints csv`] = (await ok(c.owner.get(`${S}/paints/export`))).text;
+    for (const q of invoiceShapes()) out[`${tag} invoices${q}`] = (await ok(c.owner.get(`${S}/invoices${q}`))).body;
+    for (const q of clientInvoiceShapes) out[`${tag} client invoices${q}`] = (await ok(c.client.get(`${S}/invoices${q}`))).body;
+    for (const q of exportShapes) out[`${tag} invoices csv${q}`] = (await ok(c.owner.get(`${S}/invoices/export.csv${q}`))).text;
   }
   return out;
 }
@@ -166,11 +125,18 @@ const straight: Record<string, () => Promise<unknown>> = {
 
 beforeAll(async () => {
   cached = await startTestApp();
-  fresh = await startTestApp({ dataDir: cached.dataDir });
-  direct = uncached(fresh);
+  fresh = await startTestApp({ dataDir: cached.dataDir, listsCacheRows: 0 });
   // Monday 30 March 2026, 12:00 in Berlin.
   at('2026-03-30T10:00:00.000Z');
   ({ a, b } = await moneyStudios(cached));
+  for (const [tag, side] of [['a', a], ['b', b]] as const) {
+    callers.cached[tag] = { owner: side.owner, painter: side.painter, client: side.client };
+    callers.fresh[tag] = {
+      owner: await signInAs(fresh, `owner-${tag}@studio.test`),
+      painter: await signInAs(fresh, `painter-${tag}@studio.test`),
+      client: await signInAs(fresh, `client-${tag}@studio.test`),
+    };
+  }
   base = `/api/studios/${a.studioId}`;
   ids.bone = (await ok(a.owner.post(`${base}/paints`, { name: 'Bone white', type: 'layer', hex: '#EEE8D5', stock: 3, lowStockThreshold: 2 }), 201)).body.id;
   ids.green = (await ok(a.owner.post(`${base}/paints`, { name: 'Marsh green', type: 'base', hex: '#2E5E3A', stock: 1, lowStockThreshold: 2 }), 201)).body.id;
