@@ -19,11 +19,15 @@ import Database from 'better-sqlite3';
 import { createApp } from '../../server/app';
 import { loadConfig } from '../../server/config';
 import { generate } from './support/generate';
+import { paced, type PacedResult } from './support/paced';
 import { queryPlans, type Endpoint, type Who } from './support/plans';
 
 const root = path.resolve(import.meta.dirname, '../..');
 const SECONDS = Number(process.env.BENCH_SECONDS ?? 4);
 const LEVELS = [10, 50, 200];
+/** Seconds of each step of the search for the rate a list holds within the aim (0: no search). */
+const PACED_SECONDS = Number(process.env.BENCH_PACED_SECONDS ?? 4);
+const AIM_P99_MS = 50;
 
 async function freePort() {
   const srv = net.createServer();
@@ -373,6 +377,28 @@ async function main() {
       const one = await measure(name, url, 50, headers);
       listRows.push({ ...one, alone, multi: multi ? await measure(name, `${multi.base}${p}`, 50, headers) : undefined });
     }
+    // Each list at a set rate: the highest rate at which it answers within the aim with 50 connections open, found by
+    // halving between nothing and what it made saturated (three steps), requests arriving at random whether or not
+    // earlier ones were answered (tests/bench/support/paced.ts), on one process as `npm start` runs it.
+    const heldRows = new Map<string, { held?: PacedResult; over?: PacedResult }>();
+    if (PACED_SECONDS > 0)
+      for (const [name, p, cookie] of lists) {
+        const url = `${base}${p}`;
+        const headers = cookie ? { cookie } : undefined;
+        const saturated = listRows.find((r) => r.name === name)!.rps;
+        const found: { held?: PacedResult; over?: PacedResult } = {};
+        for (let lo = 0, hi = saturated, step = 0; step < 3; step++) {
+          const rate = Math.max(10, Math.round((lo + hi) / 2));
+          await settle(url, headers ?? {});
+          const r = await paced(url, { rate, seconds: PACED_SECONDS, connections: 50, headers });
+          const within = r.p99 <= AIM_P99_MS && r.errors === 0 && r.non2xx === 0 && r.answered >= 0.97 * rate * PACED_SECONDS;
+          // each step within the aim is higher than the last one within it, each step over it lower than the last over
+          if (within) [lo, found.held] = [rate, r];
+          else [hi, found.over] = [rate, r];
+        }
+        heldRows.set(name, found);
+      }
+
     console.log(`\n## Every list endpoint, 1,000,000 stage rows (aim p99 ≤ 50 ms at 50 connections)\n`);
     const w = multi ? `, ${WORKERS} workers` : '';
     const listTable = [
@@ -393,6 +419,21 @@ async function main() {
     if (multi) {
       const slowMulti = listRows.filter((r) => over(r.multi));
       console.log(slowMulti.length ? `- over the aim at 50 connections, ${WORKERS} workers: ${slowMulti.map((r) => r.name).join(', ')}` : `- all within the aim, ${WORKERS} workers`);
+    }
+    if (heldRows.size) {
+      console.log(
+        `\n## Every list endpoint at a set rate, 50 connections open, one process (aim p99 ≤ ${AIM_P99_MS} ms)\n\n` +
+          `Requests arrive at random at the rate offered, whether or not earlier ones were answered; latency counts from arrival. ` +
+          `"Held" is the highest rate tried (${PACED_SECONDS} s a step, three halving steps below the saturated rate) within the aim, "over" the lowest tried beyond it.\n`,
+      );
+      const t = ['| endpoint | saturated req/s | held at req/s | p50 ms | p99 ms | max ms | over at req/s | p99 ms there |', '|---|---:|---:|---:|---:|---:|---:|---:|'];
+      for (const r of listRows) {
+        const { held, over } = heldRows.get(r.name) ?? {};
+        t.push(`| ${r.name} | ${r.rps.toFixed(0)} | ${held ? held.offered : 'none'} | ${held?.p50 ?? '–'} | ${held?.p99 ?? '–'} | ${held?.max ?? '–'} | ${over?.offered ?? '–'} | ${over?.p99 ?? '–'} |`);
+      }
+      console.log(t.join('\n'));
+      const heldAt = [...heldRows.values()].map((h) => h.held?.offered ?? 0);
+      console.log(`- every list within the aim with 50 connections open up to at least ${Math.min(...heldAt)} requests a second offered (lists alone at a time)`);
     }
     // Fifty requests always in flight: p99 is at least about 50 ÷ (requests a second), whatever one costs alone.
     console.log(`- at 50 connections a p99 of 50 ms needs about ${(50 / 0.05).toFixed(0)} requests a second; bare Express hello made ${at50('bare Express hello').toFixed(0)} here (one process)`);
