@@ -171,10 +171,11 @@ export async function createApp(config: Config) {
   // Commissions on the bench: studio defaults (seeded for every new studio), activity log, figures/stages, time, board.
   const setup = studioSetupService({ db, repo: studioSetupRepository(db) });
   studios.onStudioCreated((studioId, trx) => setup.seedDefaults(studioId, trx));
-  const activity = activityService({ repo: activityRepository(db), clock: config.clock });
+  // The commission's activity, comments and a stage's time are kept under commissions.thread_version (listsCacheRows; 0 off).
+  const activity = activityService({ repo: activityRepository(db), clock: config.clock, cacheRows: config.listsCacheRows });
   const figures = figuresService({ db, repo: figuresRepository(db), setup, activity, clock: config.clock });
   const commissions = commissionsService({ db, repo: commissionsRepository(db), figures, activity, clock: config.clock, listCacheRows: config.commissionListCacheRows });
-  const time = timeService({ db, repo: timeRepository(db), figures, activity, clock: config.clock });
+  const time = timeService({ db, repo: timeRepository(db), figures, activity, clock: config.clock, cacheRows: config.listsCacheRows });
   const board = boardService({ repo: boardRepository(db), setup, clock: config.clock, cacheRows: config.boardCacheRows });
   // The calendar: painters' hours and days off, the queue and its forecast, the per-person calendar feeds.
   const capacity = capacityService({ db, repo: capacityRepository(db), clock: config.clock });
@@ -202,7 +203,7 @@ export async function createApp(config: Config) {
   // Not in a worker of several: another worker's upload may be between its file and its row (the primary sweeps).
   const leftovers = link ? 0 : await photos.sweepLeftovers();
   if (storage.sweptTempFiles || leftovers) log.warn(`removed ${storage.sweptTempFiles} unfinished and ${leftovers} unreferenced photo files left by an interrupted run`);
-  const comments = commentsService({ db, repo: commentsRepository(db), notices, clock: config.clock });
+  const comments = commentsService({ db, repo: commentsRepository(db), notices, clock: config.clock, cacheRows: config.listsCacheRows });
   const approvals = approvalsService({
     db,
     repo: approvalsRepository(db),
@@ -253,9 +254,11 @@ export async function createApp(config: Config) {
     figuresOf: async (studioId, commissionId, trx) => (await figures.views(studioId, { commissionIds: [commissionId] }, false, trx)).figures,
     setStageEstimates: (trx, studioId, figureId, minutes) => figures.setStageEstimates(trx, studioId, figureId, minutes),
     moveCommission: (trx, by, commissionId, to) => commissions.transitionIn(trx, by, commissionId, to),
+    cacheRows: config.listsCacheRows,
   });
   const webhook = paymentsWebhookService({ db, repo: paymentEventsRepository(db), payments, invoices, clock: config.clock });
-  const money = moneyService({ repo: moneyRepository(db), priceTables, clock: config.clock });
+  // The money view, the quote list (above) and the enquiry list (below) are kept too (listsCacheRows; 0 off).
+  const money = moneyService({ repo: moneyRepository(db), priceTables, clock: config.clock, cacheRows: config.listsCacheRows });
   // The books (actuals against estimates, earnings net of costs) and each role's home page.
   // The books and the owner's home are kept in memory under the books version (booksCacheRows; 0 off).
   const reports = reportsService({ repo: reportsRepository(db), priceTables, clock: config.clock, cacheRows: config.booksCacheRows });
@@ -263,7 +266,7 @@ export async function createApp(config: Config) {
 
   // Both ends of a commission: the public page and its enquiries (one photo decoded at a time for visitors),
   // the models received, packing and shipping. The move to shipped waits for the balance, however it is asked for.
-  const enquiries = enquiriesService({ db, repo: enquiriesRepository(db), lists: setup, commissions, invitations, activity, storage, limiter: createLimiter(1, 10), mailer, clock: config.clock, publicUrl: config.publicUrl });
+  const enquiries = enquiriesService({ db, repo: enquiriesRepository(db), lists: setup, commissions, invitations, activity, storage, limiter: createLimiter(1, 10), mailer, clock: config.clock, publicUrl: config.publicUrl, cacheRows: config.listsCacheRows });
   const publicStudio = publicStudioService({ repo: publicStudioRepository(db), clock: config.clock, lists: setup, prices: priceTables, schedule, enquiries });
   const modelsIn = modelsInService({ db, repo: modelsInRepository(db), activity, mailer, clock: config.clock, publicUrl: config.publicUrl });
   const shipments = shipmentsService({ db, repo: shipmentsRepository(db), commissions, activity, mailer, clock: config.clock, publicUrl: config.publicUrl });

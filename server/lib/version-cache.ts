@@ -49,14 +49,26 @@ export const booksVersion = (db: Db, studioId: number): Promise<VersionInZone | 
   ).then((r) => (r ? { version: Number(r.schedule_version) + Number(r.books_version), timeZone: r.timezone } : undefined));
 
 /**
- * The version of what the paint rack and its CSV, the recipe list, the invoices and their CSV read
- * (`lists_version`, moved by migrations/20270207120000-lists-version.ts), with the studio's zone, which the
- * invoices' keys name. Undefined when there is no such studio.
+ * The version of what the paint rack and its CSV, the recipe list, the invoices and their CSV, the quotes
+ * and the enquiries read (`lists_version`, moved by migrations/20270207120000-lists-version.ts and
+ * 20270208120000-lists-version-quotes-enquiries.ts), with the studio's zone, which the invoices' and the
+ * quotes' keys name. Undefined when there is no such studio.
  */
 export const listsVersion = (db: Db, studioId: number): Promise<VersionInZone | undefined> =>
   readFirst<{ lists_version: number | string; timezone: string }>(db, db('studios').where({ id: studioId }).select('lists_version', 'timezone')).then((r) =>
     r ? { version: Number(r.lists_version), timeZone: r.timezone } : undefined,
   );
+
+/**
+ * The version of what the owner's money view reads (server/features/money/): `schedule_version` +
+ * `books_version` + `lists_version` (migrations/20270208120000-lists-version-quotes-enquiries.ts says which
+ * moves for what), as booksVersion adds two: all only grow and are read from one row. With the studio's zone.
+ */
+export const moneyVersion = (db: Db, studioId: number): Promise<VersionInZone | undefined> =>
+  readFirst<{ schedule_version: number | string; books_version: number | string; lists_version: number | string; timezone: string }>(
+    db,
+    db('studios').where({ id: studioId }).select('schedule_version', 'books_version', 'lists_version', 'timezone'),
+  ).then((r) => (r ? { version: Number(r.schedule_version) + Number(r.books_version) + Number(r.lists_version), timeZone: r.timezone } : undefined));
 
 type Entry<V> = { studioId: number; version: number; weight: number; value: Promise<V> };
 
@@ -157,5 +169,21 @@ export function keptReads<V, At extends number | { version: number } = number>(o
     const version = typeof at === 'number' ? at : at.version;
     const k = typeof key === 'string' ? key : key(at);
     return cache.get(studioId, version, k) ?? cache.set(studioId, version, k, frozen());
+  };
+}
+
+/**
+ * keptReads for reads whose version the caller has already read itself, in the same one-row read as its
+ * access check (the commission sub-lists: comments, activity, a stage's time, under `commissions.thread_version`,
+ * migrations/20270209120000-thread-version.ts). `slot` is what the version is of (a commission id; its entries
+ * of older versions are dropped as a studio's are in versionCache). Frozen either way, like keptReads; with
+ * `maxWeight` 0, read every time. The caller reads the version before the data, as keptReads does.
+ */
+export function keptAtVersion<V>(opts: { maxWeight: number; weigh: (v: V) => number }) {
+  const cache = opts.maxWeight > 0 ? versionCache<V>(opts) : null;
+  return (slot: number, version: number, key: string, read: () => Promise<V>): Promise<V> => {
+    const frozen = () => read().then(deepFreeze);
+    if (!cache) return frozen();
+    return cache.get(slot, version, key) ?? cache.set(slot, version, key, frozen());
   };
 }

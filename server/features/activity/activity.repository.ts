@@ -1,4 +1,4 @@
-import type { Db } from '../../lib/db';
+import { readFirst, type Db } from '../../lib/db';
 import type { PageParams } from '../../../shared/schemas/common';
 import { pageRows } from '../../lib/page';
 
@@ -15,6 +15,16 @@ export function activityRepository(db: Db) {
   return {
     insert: (trx: Db, e: { studioId: number; commissionId: number | null; userId: number | null; action: string; detail: Record<string, unknown>; at: string }) =>
       trx('activity').insert({ studio_id: e.studioId, commission_id: e.commissionId, user_id: e.userId, action: e.action, detail: JSON.stringify(e.detail), at: e.at }),
+    /**
+     * The commission's client and thread version (migrations/20270209120000-thread-version.ts), in one read on
+     * the read-only connection: the access check (the commission with its client in this studio, as the
+     * commissions' own read joins them) and the kept log's key. Undefined when there is no such commission.
+     */
+    thread: (studioId: number, commissionId: number) =>
+      readFirst<{ client_id: number; thread_version: number | string }>(
+        db,
+        db('commissions as c').join('clients as cl', 'cl.id', 'c.client_id').where({ 'c.studio_id': studioId, 'c.id': commissionId }).select('c.client_id', 'c.thread_version'),
+      ),
     /** Newest first. */
     list: (studioId: number, commissionId: number, q: PageParams) =>
       pageRows<ActivityRow>(

@@ -2,8 +2,11 @@ import { commissionStatusLabels, isCommissionStatus, stageStatusLabels, type Sta
 import type { ActivityEntry } from '../../../shared/schemas/commissions';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
-import type { PageParams } from '../../../shared/schemas/common';
+import type { Page, PageParams } from '../../../shared/schemas/common';
+import { errors } from '../../lib/errors';
 import { pageOf } from '../../lib/page';
+import type { Member } from '../../lib/policy';
+import { keptAtVersion } from '../../lib/version-cache';
 import type { ActivityRepository, ActivityRow } from './activity.repository';
 
 export type ActivityInput = { studioId: number; commissionId: number; userId: number | null; action: string; detail?: Record<string, unknown> };
@@ -99,8 +102,16 @@ export function summarize(action: string, d: Record<string, unknown>, who: strin
   }
 }
 
-export function activityService(deps: { repo: ActivityRepository; clock: Clock }) {
+/** Entries the kept activity pages may hold across commissions and queries. */
+export const ACTIVITY_LIST_CACHE_ROWS = 20_000;
+
+/**
+ * A commission's log. Its pages are kept per commission, thread version and page (`cacheRows` entries at
+ * most; 0 turns it off); who may see the commission is checked on every request, in the read that gives the version.
+ */
+export function activityService(deps: { repo: ActivityRepository; clock: Clock; cacheRows?: number }) {
   const { repo, clock } = deps;
+  const kept = keptAtVersion<Page<ActivityEntry>>({ maxWeight: deps.cacheRows ?? ACTIVITY_LIST_CACHE_ROWS, weigh: (p) => p.items.length + 1 });
   const view = (r: ActivityRow): ActivityEntry => {
     let detail: Record<string, unknown>;
     try {
@@ -121,10 +132,17 @@ export function activityService(deps: { repo: ActivityRepository; clock: Clock }
     /** Records a change inside the transaction that makes it. */
     record: (trx: Db, e: ActivityInput) =>
       repo.insert(trx, { studioId: e.studioId, commissionId: e.commissionId, userId: e.userId, action: e.action, detail: e.detail ?? {}, at: iso(clock.now()) }),
-    /** One page of a commission's log, newest first. */
-    async list(studioId: number, commissionId: number, q: PageParams) {
-      const { rows, total } = await repo.list(studioId, commissionId, q);
-      return pageOf(rows.map(view), total, q);
+    /**
+     * One page of a commission's log, newest first, if the member may see the commission: the studio's team
+     * sees all, a client only their own (else 404, as the commission's own answers).
+     */
+    async listFor(m: Member, commissionId: number, q: PageParams) {
+      const t = await repo.thread(m.studioId, commissionId);
+      if (!t || (m.role === 'client' && t.client_id !== m.clientId)) throw errors.notFound('That commission');
+      return kept(commissionId, Number(t.thread_version), `${q.limit} ${q.offset}`, async () => {
+        const { rows, total } = await repo.list(m.studioId, commissionId, q);
+        return pageOf(rows.map(view), total, q);
+      });
     },
   };
 }

@@ -1,6 +1,6 @@
 import type { Comment } from '../../../shared/schemas/comments';
 import type { PageParams, Role } from '../../../shared/schemas/common';
-import type { Db } from '../../lib/db';
+import { readFirst, type Db } from '../../lib/db';
 import { pageRows } from '../../lib/page';
 
 type CommentRow = { id: number; user_id: number | null; user_name: string | null; role: Role | null; body: string; created_at: string };
@@ -22,6 +22,12 @@ export function commentsRepository(db: Db) {
       .where('k.studio_id', studioId)
       .select('k.id', 'k.user_id', 'u.name as user_name', 'm.role', 'k.body', 'k.created_at');
   return {
+    /**
+     * The commission's client and thread version (migrations/20270209120000-thread-version.ts), in one read on
+     * the read-only connection: the access check and the kept thread's key. Undefined when the studio has no such commission.
+     */
+    thread: (studioId: number, commissionId: number) =>
+      readFirst<{ client_id: number; thread_version: number | string }>(db, db('commissions').where({ studio_id: studioId, id: commissionId }).select('client_id', 'thread_version')),
     commission: (studioId: number, commissionId: number) =>
       db('commissions').where({ studio_id: studioId, id: commissionId }).first('id', 'client_id', 'title') as Promise<{ id: number; client_id: number; title: string } | undefined>,
     /** One page of the thread, oldest first. */

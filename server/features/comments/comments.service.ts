@@ -1,16 +1,25 @@
-import type { CreateCommentInput } from '../../../shared/schemas/comments';
+import type { Comment, CreateCommentInput } from '../../../shared/schemas/comments';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
-import type { PageParams } from '../../../shared/schemas/common';
+import type { Page, PageParams } from '../../../shared/schemas/common';
 import { pageOf } from '../../lib/page';
 import { errors } from '../../lib/errors';
+import { keptAtVersion } from '../../lib/version-cache';
 import type { Member } from '../../lib/policy';
 import { quote, type NoticesService } from '../notices/notices.service';
 import type { CommentsRepository } from './comments.repository';
 
-/** The thread between the studio and the client on one commission. */
-export function commentsService(deps: { db: Db; repo: CommentsRepository; notices: NoticesService; clock: Clock }) {
+/** Comments the kept thread pages may hold across commissions and queries. */
+export const COMMENT_LIST_CACHE_ROWS = 20_000;
+
+/**
+ * The thread between the studio and the client on one commission. Its pages are kept per commission, thread
+ * version and page (`cacheRows` comments at most; 0 turns it off): the same for the studio and the client, so
+ * one entry serves both; who may see it is checked on every request, in the read that gives the version.
+ */
+export function commentsService(deps: { db: Db; repo: CommentsRepository; notices: NoticesService; clock: Clock; cacheRows?: number }) {
   const { db, repo, notices, clock } = deps;
+  const kept = keptAtVersion<Page<Comment>>({ maxWeight: deps.cacheRows ?? COMMENT_LIST_CACHE_ROWS, weigh: (p) => p.items.length + 1 });
 
   async function commissionFor(m: Member, commissionId: number) {
     const c = await repo.commission(m.studioId, commissionId);
@@ -20,9 +29,12 @@ export function commentsService(deps: { db: Db; repo: CommentsRepository; notice
 
   return {
     async list(m: Member, commissionId: number, q: PageParams) {
-      await commissionFor(m, commissionId);
-      const { rows, total } = await repo.list(m.studioId, commissionId, q);
-      return pageOf(rows, total, q);
+      const t = await repo.thread(m.studioId, commissionId);
+      if (!t || (m.role === 'client' && t.client_id !== m.clientId)) throw errors.notFound('That commission');
+      return kept(commissionId, Number(t.thread_version), `${q.limit} ${q.offset}`, async () => {
+        const { rows, total } = await repo.list(m.studioId, commissionId, q);
+        return pageOf(rows, total, q);
+      });
     },
     /** A client's comment goes to the studio; the studio's to the client. */
     async create(m: Member, user: { id: number; name: string }, commissionId: number, input: CreateCommentInput) {

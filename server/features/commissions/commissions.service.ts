@@ -248,10 +248,8 @@ export function commissionsService(deps: { db: Db; repo: CommissionsRepository; 
       return true;
     },
 
-    async activity(actor: Actor, id: number, q: PageParams) {
-      await visible(actor, id);
-      return activity.list(actor.studioId, id, q);
-    },
+    /** The commission's log; the activity service checks who may see it, in the read that gives its kept pages' version. */
+    activity: (actor: Actor, id: number, q: PageParams) => activity.listFor(actor, id, q),
   };
 }
 

@@ -1,5 +1,5 @@
 import type { CommissionStatus } from '../../../shared/commission-lifecycle';
-import type { Db } from '../../lib/db';
+import { readFirst, type Db } from '../../lib/db';
 import type { PageParams } from '../../../shared/schemas/common';
 import { pageRows } from '../../lib/page';
 
@@ -51,6 +51,20 @@ export function timeRepository(db: Db) {
       .join('commissions as c', 'c.id', 't.commission_id')
       .select(columns);
   return {
+    /**
+     * The stage's commission and its thread version (migrations/20270209120000-thread-version.ts), in one read
+     * on the read-only connection: the access check (the stage, its figure and its commission in this studio,
+     * as figures' stageContext joins them) and the kept time list's key. Undefined when there is no such stage.
+     */
+    stageThread: (studioId: number, stageId: number) =>
+      readFirst<{ commission_id: number; thread_version: number | string }>(
+        db,
+        db('stages as s')
+          .join('figures as f', 'f.id', 's.figure_id')
+          .join('commissions as c', 'c.id', 's.commission_id')
+          .where({ 's.studio_id': studioId, 's.id': stageId })
+          .select('c.id as commission_id', 'c.thread_version'),
+      ),
     /** One page of a stage's time, oldest first. */
     listForStage: (studioId: number, stageId: number, q: PageParams) =>
       pageRows<TimeRow>(base(db).where({ 't.studio_id': studioId, 't.stage_id': stageId }).orderBy([{ column: 't.started_at' }, { column: 't.id' }]), q),

@@ -3,9 +3,10 @@ import { hoursToMinutes, minutesToHours } from '../../../shared/commission-lifec
 import type { ManualTimeInput, RunningTimer, TimeEntry, UpdateTimeInput } from '../../../shared/schemas/commissions';
 import { iso, type Clock } from '../../lib/clock';
 import type { Db } from '../../lib/db';
-import type { PageParams } from '../../../shared/schemas/common';
+import type { Page, PageParams } from '../../../shared/schemas/common';
 import { pageOf } from '../../lib/page';
 import { errors } from '../../lib/errors';
+import { keptAtVersion } from '../../lib/version-cache';
 import type { ActivityService } from '../activity/activity.service';
 import { assertOpen, type Actor, type FiguresService } from '../figures/figures.service';
 import type { TimeRepository, TimeRow } from './time.repository';
@@ -35,8 +36,17 @@ const toRunning = (r: TimeRow): RunningTimer => ({
 /** The local date (yyyy-mm-dd) of an instant in a timezone. */
 const localDate = (d: Date, timeZone: string) => new Intl.DateTimeFormat('en-CA', { timeZone, year: 'numeric', month: '2-digit', day: '2-digit' }).format(d);
 
-export function timeService(deps: { db: Db; repo: TimeRepository; figures: FiguresService; activity: ActivityService; clock: Clock }) {
+/** Time entries the kept stage pages may hold across commissions, stages and queries. */
+export const TIME_LIST_CACHE_ROWS = 20_000;
+
+/**
+ * Time logged on stages: timers and manual entries. A stage's page of time is kept per commission, thread
+ * version, stage and page (`cacheRows` entries at most; 0 turns it off); the stage is looked up on every
+ * request, in the read that gives the version.
+ */
+export function timeService(deps: { db: Db; repo: TimeRepository; figures: FiguresService; activity: ActivityService; clock: Clock; cacheRows?: number }) {
   const { db, repo, figures, activity, clock } = deps;
+  const kept = keptAtVersion<Page<TimeEntry>>({ maxWeight: deps.cacheRows ?? TIME_LIST_CACHE_ROWS, weigh: (p) => p.items.length + 1 });
 
   const where = (r: Pick<TimeRow, 'stage_id' | 'stage_name' | 'figure_id' | 'figure_name'>) => ({
     stageId: r.stage_id,
@@ -75,9 +85,12 @@ export function timeService(deps: { db: Db; repo: TimeRepository; figures: Figur
 
   return {
     async listForStage(actor: Actor, stageId: number, q: PageParams) {
-      await figures.stageContext(actor.studioId, stageId);
-      const { rows, total } = await repo.listForStage(actor.studioId, stageId, q);
-      return pageOf(rows.map(toEntry), total, q);
+      const t = await repo.stageThread(actor.studioId, stageId);
+      if (!t) throw errors.notFound('That stage');
+      return kept(Number(t.commission_id), Number(t.thread_version), `${stageId} ${q.limit} ${q.offset}`, async () => {
+        const { rows, total } = await repo.listForStage(actor.studioId, stageId, q);
+        return pageOf(rows.map(toEntry), total, q);
+      });
     },
 
     async addManual(actor: Actor, stageId: number, input: ManualTimeInput) {
