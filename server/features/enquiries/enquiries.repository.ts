@@ -1,5 +1,6 @@
 import type { EnquiryListQuery, EnquiryStatus } from '../../../shared/schemas/enquiries';
 import type { Db } from '../../lib/db';
+import { listsVersion } from '../../lib/version-cache';
 
 export type EnquiryRow = {
   id: number;
@@ -45,6 +46,8 @@ const idOf = (row: unknown) => (typeof row === 'object' && row !== null ? (row a
 /** Enquiries of one studio; every query takes the studio id first. */
 export function enquiriesRepository(db: Db) {
   return {
+    /** The version the kept enquiry list is read under (server/lib/version-cache.ts). */
+    listsVersion: (studioId: number) => listsVersion(db, studioId),
     async insert(trx: Db, row: Omit<EnquiryRow, 'id' | 'decided_at' | 'decided_by' | 'client_id' | 'commission_id' | 'decline_message'>) {
       const [r] = await trx('enquiries').insert(row).returning('id');
       return idOf(r);

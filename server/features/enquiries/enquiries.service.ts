@@ -22,6 +22,7 @@ import type { Mailer } from '../../lib/mail/mailer';
 import { templates } from '../../lib/mail/templates';
 import type { FileStorage, StagedFile } from '../../lib/storage/storage';
 import type { Limiter } from '../../lib/upload';
+import { keptReads, type VersionInZone } from '../../lib/version-cache';
 import type { EnquiriesRepository, EnquiryListRow, EnquiryPhotoRow, EnquiryRow } from './enquiries.repository';
 
 type Actor = { studioId: number; role: string; clientId: number | null; userId: number };
@@ -33,6 +34,9 @@ const SIZES = ['original', 'large', 'medium', 'thumb'] as const;
 const num = (v: number | string | null | undefined) => Number(v ?? 0);
 const plural = (n: number, one: string, many = `${one}s`) => `${n} ${n === 1 ? one : many}`;
 const isConflict = (err: unknown): err is AppError => err instanceof AppError && err.status === 409;
+
+/** Enquiries the kept list pages may hold across studios and queries. */
+export const ENQUIRY_LIST_CACHE_ROWS = 20_000;
 
 function parseKeys(json: string): string[] {
   try {
@@ -58,8 +62,20 @@ export function enquiriesService(deps: {
   mailer: Mailer;
   clock: Clock;
   publicUrl: string;
+  /** Enquiries the kept list pages may hold (default ENQUIRY_LIST_CACHE_ROWS); 0 turns them off. */
+  cacheRows?: number;
 }) {
   const { db, repo, storage, limiter, mailer, clock } = deps;
+  /**
+   * The list's pages are kept per studio, lists version (moved by the enquiries, their figures and photos, and
+   * the studio's tiers: migrations/20270208120000-lists-version-quotes-enquiries.ts) and query: reading the
+   * same rows again was nearly all of their cost. Nothing on them depends on the clock.
+   */
+  const keptPages = keptReads<Page<EnquirySummary> & { newCount: number }, VersionInZone>({
+    version: (studioId) => repo.listsVersion(studioId),
+    maxWeight: deps.cacheRows ?? ENQUIRY_LIST_CACHE_ROWS,
+    weigh: (p) => p.items.length + 1,
+  });
   const now = () => iso(clock.now());
   const notFound = () => errors.notFound('That enquiry');
 
@@ -235,9 +251,12 @@ export function enquiriesService(deps: {
       return { received: true, message: `Thank you. ${studio.name} has your enquiry; a confirmation is on its way to ${input.email}.` };
     },
 
-    async list(actor: Actor, q: EnquiryListQuery): Promise<Page<EnquirySummary> & { newCount: number }> {
-      const [{ rows, total }, tiers, newCount] = await Promise.all([repo.list(actor.studioId, q), deps.lists.tiers(actor.studioId), repo.countNew(actor.studioId)]);
-      return { items: rows.map((r) => summaryOf(r, tiers)), total, limit: q.limit, offset: q.offset, newCount };
+    list(actor: Actor, q: EnquiryListQuery): Promise<Page<EnquirySummary> & { newCount: number }> {
+      const key = JSON.stringify([q.status ?? null, q.q ?? null, q.limit, q.offset]);
+      return keptPages(actor.studioId, key, async () => {
+        const [{ rows, total }, tiers, newCount] = await Promise.all([repo.list(actor.studioId, q), deps.lists.tiers(actor.studioId), repo.countNew(actor.studioId)]);
+        return { items: rows.map((r) => summaryOf(r, tiers)), total, limit: q.limit, offset: q.offset, newCount };
+      });
     },
 
     /** What the photo route needs: the owner's own studio's enquiry photo, or 404. */

@@ -1,11 +1,14 @@
 import type { CommissionStatus } from '../../../shared/commission-lifecycle';
 import type { Db } from '../../lib/db';
+import { moneyVersion } from '../../lib/version-cache';
 
 const n = (v: unknown) => Number(v ?? 0);
 
 /** Read-only sums over a studio's invoices and payments for the owner's money view. */
 export function moneyRepository(db: Db) {
   return {
+    /** The version the kept money view is read under, with the studio's zone (server/lib/version-cache.ts). */
+    version: (studioId: number) => moneyVersion(db, studioId),
     /** The studio's zone and currency, with its saved price table's text if it has one (one query). */
     studio: (studioId: number) =>
       db('studios as s')

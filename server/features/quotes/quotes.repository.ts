@@ -3,6 +3,7 @@ import type { QuoteResult } from '../../../shared/pricing';
 import type { PriceTable } from '../../../shared/schemas/price-table';
 import type { QuoteInput, QuoteListQuery, QuoteStatus } from '../../../shared/schemas/quotes';
 import type { Db } from '../../lib/db';
+import { listsVersion } from '../../lib/version-cache';
 
 export type QuoteRow = {
   id: number;
@@ -131,6 +132,8 @@ export function quotesRepository(db: Db) {
       .where('q.studio_id', studioId);
 
   return {
+    /** The version the kept quote list is read under, with the studio's zone (server/lib/version-cache.ts). */
+    listsVersion: (studioId: number) => listsVersion(db, studioId),
     commission: (studioId: number, commissionId: number, trx: Db = db) =>
       trx('commissions').where({ studio_id: studioId, id: commissionId }).first('id', 'title', 'status', 'client_id', 'due_date') as Promise<
         { id: number; title: string; status: CommissionStatus; client_id: number; due_date: string | null } | undefined

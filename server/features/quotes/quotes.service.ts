@@ -28,7 +28,11 @@ import type { Member } from '../../lib/policy';
 import type { ActivityService } from '../activity/activity.service';
 import type { InvoicesService } from '../invoices/invoices.service';
 import type { PriceTableService } from '../price-table/price-table.service';
+import { keptReads, type VersionInZone } from '../../lib/version-cache';
 import type { QuoteListRow, QuoteRow, QuotesRepository } from './quotes.repository';
+
+/** Quotes the kept list pages may hold across studios, clients and queries. */
+export const QUOTE_LIST_CACHE_ROWS = 20_000;
 
 export type Actor = Member & { userId: number };
 type Person = { id: number; name: string };
@@ -48,6 +52,8 @@ export type QuotesDeps = {
   setStageEstimates: (trx: Db, studioId: number, figureId: number, minutes: Record<string, number>) => Promise<void>;
   /** a lifecycle move inside the caller's transaction (enquiry → quoted when a quote is sent) */
   moveCommission: (trx: Db, by: { studioId: number; userId: number | null }, commissionId: number, to: CommissionStatus) => Promise<void>;
+  /** Quotes the kept list pages may hold (default QUOTE_LIST_CACHE_ROWS); 0 turns them off. */
+  cacheRows?: number;
 };
 
 /** The engine's complaints as a 422 whose fields point into the quote input. */
@@ -87,6 +93,19 @@ export function quotesService(deps: QuotesDeps) {
   const { db, repo, priceTables, invoices, activity, mailer, clock, publicUrl } = deps;
   const now = () => iso(clock.now());
   const quoteUrl = (studioId: number, id: number) => `${publicUrl}/studio/${studioId}/quotes/${id}`;
+
+  /**
+   * The list's pages (the owner's, and each client's) are kept per studio, lists version (moved by the quotes,
+   * commissions' titles and clients' names: migrations/20270207120000-lists-version.ts, 20270208120000-...)
+   * and query, with the studio's day in the key: a sent quote past its validity is shown as expired, and
+   * written so by the request that first reads it that day (its write moves the version, so the next request
+   * reads the quotes as they are stored).
+   */
+  const keptPages = keptReads<Page<QuoteSummary>, VersionInZone>({
+    version: (studioId) => repo.listsVersion(studioId),
+    maxWeight: deps.cacheRows ?? QUOTE_LIST_CACHE_ROWS,
+    weigh: (p) => p.items.length + 1,
+  });
 
   async function price(studioId: number, input: QuoteInput, trx: Db = db): Promise<{ table: PriceTable; today: string; result: QuoteResult }> {
     const table = await priceTables.get(studioId, trx);
@@ -228,16 +247,24 @@ export function quotesService(deps: QuotesDeps) {
   }
 
   return {
-    async list(actor: Member, q: QuoteListQuery): Promise<Page<QuoteSummary>> {
+    list(actor: Member, q: QuoteListQuery): Promise<Page<QuoteSummary>> {
       const client = actor.role === 'client';
-      const { rows, total } = await repo.list(actor.studioId, { ...q, onlyClientId: client ? (actor.clientId ?? -1) : undefined, hideDrafts: client });
-      // One look at the studio's date for the whole page, and one update for the quotes on it that ran out.
-      const sent = rows.filter((r) => r.status === 'sent');
-      const today = sent.length ? await priceTables.today(actor.studioId) : '';
-      const due = sent.filter((r) => r.valid_until < today).map((r) => r.id);
-      if (due.length) await repo.expire(db, actor.studioId, due, now());
-      const fresh = rows.map((r) => (due.includes(r.id) ? { ...r, status: 'expired' as const } : r));
-      return { items: fresh.map(summary), total, limit: q.limit, offset: q.offset };
+      const onlyClientId = client ? (actor.clientId ?? -1) : undefined;
+      let day: string | undefined;
+      const key = (at: VersionInZone) => {
+        day = localDateOf(clock.now().getTime(), at.timeZone);
+        return JSON.stringify([day, onlyClientId ?? null, q.commissionId ?? null, q.status ?? null, q.q ?? null, q.limit, q.offset]);
+      };
+      return keptPages(actor.studioId, key, async () => {
+        const { rows, total } = await repo.list(actor.studioId, { ...q, onlyClientId, hideDrafts: client });
+        // One look at the studio's date for the whole page (the key's, when kept), and one update for the quotes on it that ran out.
+        const sent = rows.filter((r) => r.status === 'sent');
+        const today = sent.length ? (day ?? (await priceTables.today(actor.studioId))) : '';
+        const due = sent.filter((r) => r.valid_until < today).map((r) => r.id);
+        if (due.length) await repo.expire(db, actor.studioId, due, now());
+        const fresh = rows.map((r) => (due.includes(r.id) ? { ...r, status: 'expired' as const } : r));
+        return { items: fresh.map(summary), total, limit: q.limit, offset: q.offset };
+      });
     },
 
     async get(actor: Member, id: number) {
