@@ -23,8 +23,8 @@ import type { Knex } from 'knex';
  *   booked), which no version moved alone, here. Its key names the studio's day in its zone (overdue
  *   invoices, this month's payments).
  *
- * Same shape as the lists version's first triggers, and on PostgreSQL the same functions
- * (`lists_version_row()`, `lists_version_touch(studio)`: once per studio and transaction, at its commit).
+ * Same shape as the lists version's first triggers; on PostgreSQL through the same
+ * `lists_version_touch(studio)` (once per studio and transaction, at its commit).
  * Trigger names start with `lists_version_`, so a bulk loader that sets that prefix aside
  * (tests/bench/support/generate.ts) sets these aside too.
  */
@@ -72,8 +72,27 @@ function sqliteTriggers(): string[] {
 /** Every trigger by name, with its table (the tests drop them one at a time). */
 export const quotesEnquiriesListsTriggers = () => watched.flatMap((w) => ops(w).map((op) => ({ name: name(w, op), table: w.table })));
 
+/**
+ * PostgreSQL: a trigger function of these triggers' own, calling 20270207120000's `lists_version_touch`: a
+ * trigger depends on the function it executes, so on `lists_version_row()` these would stop
+ * dropListsVersionTriggers (which the tests and a bulk loader run) from dropping it.
+ */
+const pgFunction = `create function lists_version_more_row() returns trigger language plpgsql as $$
+begin
+  if tg_op = 'DELETE' then
+    perform lists_version_touch(old.studio_id);
+  elsif tg_op = 'UPDATE' then
+    perform lists_version_touch(new.studio_id);
+    perform lists_version_touch(old.studio_id);
+  else
+    perform lists_version_touch(new.studio_id);
+  end if;
+  return null;
+end
+$$`;
+
 const deferred = (trigger: string, event: string, table: string, when: string | null) =>
-  `create constraint trigger ${trigger} after ${event} on ${table} deferrable initially deferred for each row${when ? ` when (${when})` : ''} execute function lists_version_row()`;
+  `create constraint trigger ${trigger} after ${event} on ${table} deferrable initially deferred for each row${when ? ` when (${when})` : ''} execute function lists_version_more_row()`;
 
 function pgTriggers(): string[] {
   const out: string[] = [];
@@ -89,13 +108,14 @@ function pgTriggers(): string[] {
 
 const isPostgres = (knex: Knex) => knex.client.config.client === 'pg';
 
-/** The triggers (the tests drop and make them again; they use 20270207120000's functions on PostgreSQL). */
+/** The triggers (the tests drop and make them again; on PostgreSQL they call 20270207120000's `lists_version_touch`). */
 export async function createQuotesEnquiriesListsTriggers(knex: Knex) {
-  for (const s of isPostgres(knex) ? pgTriggers() : sqliteTriggers()) await knex.raw(s);
+  for (const s of isPostgres(knex) ? [pgFunction, ...pgTriggers()] : sqliteTriggers()) await knex.raw(s);
 }
 
 export async function dropQuotesEnquiriesListsTriggers(knex: Knex) {
   for (const t of quotesEnquiriesListsTriggers()) await knex.raw(isPostgres(knex) ? `drop trigger if exists ${t.name} on ${t.table}` : `drop trigger if exists ${t.name}`);
+  if (isPostgres(knex)) await knex.raw('drop function if exists lists_version_more_row()');
 }
 
 export async function up(knex: Knex) {

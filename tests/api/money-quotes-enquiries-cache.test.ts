@@ -280,9 +280,10 @@ describe('the kept money view, enquiries and quotes after each write they read',
     }
   }, 180_000);
 
-  it('the lists version’s own triggers still move these answers (a client renamed straight to the database)', async () => {
+  it('the first lists triggers set aside and made again (as the bench’s loader and the rack’s test do) leave these working', async () => {
     await dropListsVersionTriggers(cached.db);
     await createListsVersionTriggers(cached.db);
+    await afterWrite(() => cached.db('quotes').where({ id: ids.sentQuote }).update({ total: 30_000 + ++n }));
     await afterWrite(() => cached.db('clients').where({ id: a.clientId }).update({ name: `Client A, renamed ${++n}` }));
   });
 
