@@ -22,11 +22,12 @@ function totalsSetAside(db: Database.Database) {
   // totals' triggers (migrations/20270202120000-figure-totals.ts) would recompute a figure from its stages
   // once per stage inserted; their backfill, the same SQL the triggers run, sets every figure at the end.
   // The books version's (migrations/20270205120000-books-version.ts) would bump it per invoice, payment and
-  // accepted quote, and the lists version's (migrations/20270207120000-lists-version.ts) per paint, recipe,
-  // step and invoice.
+  // accepted quote, the lists version's (migrations/20270207120000-lists-version.ts, 20270208120000) per paint,
+  // recipe, step, invoice, quote and enquiry, and the thread version's (migrations/20270209120000-thread-version.ts)
+  // the commission per comment, activity row and time entry.
   const triggers = db
     .prepare(
-      "select name, sql from sqlite_master where type = 'trigger' and (name glob 'commission_totals_*' or name glob 'schedule_version_*' or name glob 'figure_totals_*' or name glob 'books_version_*' or name glob 'lists_version_*')",
+      "select name, sql from sqlite_master where type = 'trigger' and (name glob 'commission_totals_*' or name glob 'schedule_version_*' or name glob 'figure_totals_*' or name glob 'books_version_*' or name glob 'lists_version_*' or name glob 'thread_version_*')",
     )
     .all() as { name: string; sql: string }[];
   for (const t of triggers) db.exec(`drop trigger ${t.name}`);
