@@ -391,7 +391,7 @@ async function main() {
           const rate = Math.max(10, Math.round((lo + hi) / 2));
           await settle(url, headers ?? {});
           const r = await paced(url, { rate, seconds: PACED_SECONDS, connections: 50, headers });
-          const within = r.p99 <= AIM_P99_MS && r.errors === 0 && r.non2xx === 0 && r.answered >= 0.97 * rate * PACED_SECONDS;
+          const within = r.p99 <= AIM_P99_MS && r.errors === 0 && r.non2xx === 0 && r.answered === r.sent;
           // each step within the aim is higher than the last one within it, each step over it lower than the last over
           if (within) [lo, found.held] = [rate, r];
           else [hi, found.over] = [rate, r];

@@ -10,7 +10,7 @@
  */
 import http from 'node:http';
 
-export type PacedResult = { offered: number; answered: number; rps: number; p50: number; p99: number; max: number; errors: number; non2xx: number };
+export type PacedResult = { offered: number; sent: number; answered: number; rps: number; p50: number; p99: number; max: number; errors: number; non2xx: number };
 
 /** mulberry32: a small seeded generator, so every run offers the same arrival times. */
 function seeded(seed: number) {
@@ -87,6 +87,7 @@ export async function paced(target: string, opts: { rate: number; seconds: numbe
     latencies.sort((a, b) => a - b);
     return {
       offered: opts.rate,
+      sent: arrivals.length,
       answered: latencies.length,
       rps: latencies.length / took,
       p50: Math.round(percentile(latencies, 0.5)),
