@@ -3,22 +3,12 @@
 // daylight-saving changes. Aim: under 150 ms; doubling the queue should about double the time.
 import { forecast, type CommissionWork, type ForecastInput, type PainterCapacity } from '../../shared/schedule';
 import { addDays } from '../../shared/dates';
+// mulberry32, fixed seeds: every run books the same queue
+import { seededRandom as rng } from '../../shared/palette';
 
 const AIM_MS = 150;
 const WARMUP = 3;
 const RUNS = 15;
-
-// mulberry32: a small fixed-seed generator, so every run books the same queue.
-function rng(seed: number): () => number {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 const START = '2026-03-02'; // a Monday; the queue runs across several clock changes in Berlin
 

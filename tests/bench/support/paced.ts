@@ -9,20 +9,9 @@
  * second, all connections at once, which measures a saturated server forty times a minute; hence this.
  */
 import http from 'node:http';
+import { seededRandom } from '../../../shared/palette';
 
 export type PacedResult = { offered: number; sent: number; answered: number; rps: number; p50: number; p99: number; max: number; errors: number; non2xx: number };
-
-/** mulberry32: a small seeded generator, so every run offers the same arrival times. */
-function seeded(seed: number) {
-  let a = seed >>> 0;
-  return () => {
-    a = (a + 0x6d2b79f5) >>> 0;
-    let t = a;
-    t = Math.imul(t ^ (t >>> 15), t | 1);
-    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
-    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
-  };
-}
 
 /** Nearest-rank percentile of sorted values. */
 function percentile(sorted: number[], q: number) {
@@ -49,7 +38,7 @@ export async function paced(target: string, opts: { rate: number; seconds: numbe
   try {
     // open every connection first (one request on each, all at once), so the run measures open connections
     await Promise.all(Array.from({ length: opts.connections }, () => get(agent, url, headers)));
-    const random = seeded(opts.seed ?? 20261202);
+    const random = seededRandom(opts.seed ?? 20261202); // the same arrivals every run
     const arrivals: number[] = [];
     for (let t = 0; ; ) {
       t += (-Math.log(1 - random()) / opts.rate) * 1000;
