@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createThreadVersionTriggers, dropThreadVersionTriggers, threadVersionTriggers } from '../../migrations/20270209120000-thread-version';
 import { idOf, signInAs, startTestApp, twoStudios, withQueries, type Caller, type TestApp } from '../support/app';
 import { secondClient, secondPainter, userId } from '../support/fixtures';
-import { afterEachWrite, bothClocks, isFloorRead } from '../support/kept-reads';
+import { afterEachWrite, bothClocks, isFloorRead, ok } from '../support/kept-reads';
 
 // A commission's comments, its activity and a stage's time are kept in memory per commission, thread version
 // and page (server/features/comments/comments.service.ts, activity/activity.service.ts, time/time.service.ts;
@@ -21,13 +21,6 @@ let a: Side;
 let b: Side;
 let base: string;
 const ids: Record<string, number> = {};
-
-// eslint-disable-next-line @typescript-eslint/no-explicit-any -- answers compared whole
-const ok = async <R extends { status: number; body: any }>(res: Promise<R>, status = 200) => {
-  const r = await res;
-  if (r.status !== status) throw new Error(`${r.status}: ${JSON.stringify(r.body)}`);
-  return r;
-};
 
 type Role = 'owner' | 'painter' | 'client';
 const callers = { cached: {}, fresh: {} } as Record<'cached' | 'fresh', Record<'a' | 'b', Record<Role, Caller>>>;

@@ -4,7 +4,7 @@ import { createListsVersionTriggers, dropListsVersionTriggers } from '../../migr
 import { createQuotesEnquiriesListsTriggers, dropQuotesEnquiriesListsTriggers, quotesEnquiriesListsTriggers } from '../../migrations/20270208120000-lists-version-quotes-enquiries';
 import { Caller, idOf, signInAs, startTestApp, withQueries, type TestApp } from '../support/app';
 import { images } from '../support/fixtures';
-import { afterEachWrite, bothClocks, isFloorRead } from '../support/kept-reads';
+import { afterEachWrite, bothClocks, isFloorRead, ok } from '../support/kept-reads';
 import { checkoutCompletedEvent } from '../support/payment-events';
 import { acceptedQuote, commission, draftQuote, invoicesOf, moneyStudios, sentQuote, shipping, type Side } from './money-flow';
 
@@ -28,13 +28,6 @@ let b: Side;
 let base: string;
 let slug: string;
 const ids: Record<string, number> = {};
-
-// eslint-disable-next-line @typescript-eslint/no-explicit-any -- answers compared whole
-const ok = async <R extends { status: number; body: any }>(res: Promise<R>, status = 200) => {
-  const r = await res;
-  if (r.status !== status) throw new Error(`${r.status}: ${JSON.stringify(r.body)}`);
-  return r;
-};
 
 const enquiryShapes = ['', '?status=new', '?limit=1&offset=1', '?q=corvin'];
 const quoteShapes = () => ['', '?status=sent', '?limit=1&offset=1', '?q=marsh', `?commissionId=${ids.first}`];

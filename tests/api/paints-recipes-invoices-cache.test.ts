@@ -1,7 +1,7 @@
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createListsVersionTriggers, dropListsVersionTriggers, listsVersionTriggers } from '../../migrations/20270207120000-lists-version';
 import { idOf, signInAs, startTestApp, withQueries, type Caller, type TestApp } from '../support/app';
-import { afterEachWrite, bothClocks, isFloorRead } from '../support/kept-reads';
+import { afterEachWrite, bothClocks, isFloorRead, ok } from '../support/kept-reads';
 import { acceptedQuote, commission, invoicesOf, moneyStudios, type Side } from './money-flow';
 
 // The paint rack, its CSV, the recipe list, the invoice list and the invoices' CSV are kept in memory per
@@ -22,13 +22,6 @@ let a: Side;
 let b: Side;
 let base: string;
 const ids: Record<string, number> = {};
-
-// eslint-disable-next-line @typescript-eslint/no-explicit-any -- answers compared whole
-const ok = async <R extends { status: number; body: any }>(res: Promise<R>, status = 200) => {
-  const r = await res;
-  if (r.status !== status) throw new Error(`${r.status}: ${JSON.stringify(r.body)}`);
-  return r;
-};
 
 const recipeShapes = ['', '?limit=1&offset=1', '?q=marsh'];
 const paintShapes = ['', '?limit=2&offset=1', '?type=layer', '?stock=short', '?q=bone'];

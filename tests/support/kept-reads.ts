@@ -37,3 +37,11 @@ const q = '[`"]';
  */
 const floorPatterns = [`${q}sessions${q}`, `^select [^()]* from ${q}users${q} where ${q}id${q} = `, `from ${q}memberships${q} as ${q}m${q}`].map((p) => new RegExp(p));
 export const isFloorRead = (sql: string) => floorPatterns.some((p) => p.test(sql));
+
+/** The answer, or an error naming its status and body when it is not `status` (200 unless told). */
+// eslint-disable-next-line @typescript-eslint/no-explicit-any -- answers compared whole
+export const ok = async <R extends { status: number; body: any }>(res: Promise<R>, status = 200) => {
+  const r = await res;
+  if (r.status !== status) throw new Error(`${r.status}: ${JSON.stringify(r.body)}`);
+  return r;
+};
